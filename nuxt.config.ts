@@ -1,14 +1,34 @@
 // Cyclodial — Nuxt configuration. Source folders live at the repository root
 // (architecture.md), so srcDir is the root and Nuxt's shared/ dir sits beside it.
+import { randomBytes } from 'node:crypto'
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs'
+import { join } from 'node:path'
+import type { Nuxt } from '@nuxt/schema'
+
+/**
+ * In development, generate a session password once and keep it under .data/
+ * (git-ignored), so sign-ins survive dev-server restarts without a .env file.
+ * Production never takes this path: the built server refuses to start without
+ * NUXT_SESSION_PASSWORD. Runs before nuxt-auth-utils, which would otherwise
+ * write a .env file.
+ */
+function devSessionPassword(_options: unknown, nuxt: Nuxt) {
+  if (!nuxt.options.dev || process.env.NUXT_SESSION_PASSWORD) return
+  const dir = join(nuxt.options.rootDir, '.data')
+  const file = join(dir, 'session-password')
+  if (!existsSync(file)) {
+    mkdirSync(dir, { recursive: true })
+    writeFileSync(file, randomBytes(32).toString('hex'), { mode: 0o600 })
+  }
+  const password = readFileSync(file, 'utf8').trim()
+  process.env.NUXT_SESSION_PASSWORD = password
+  const config = nuxt.options.runtimeConfig as Record<string, any>
+  config.session = { ...(config.session ?? {}), password }
+}
+
 export default defineNuxtConfig({
-  compatibilityDate: '2025-07-15',
-  srcDir: '.',
-  dir: { app: '.' },
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  modules: [devSessionPassword, '@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
   devtools: { enabled: false },
-  telemetry: false,
-  typescript: { strict: true },
-  css: ['~/assets/css/main.css'],
   app: {
     head: {
       htmlAttrs: { lang: 'en-GB' },
@@ -20,6 +40,7 @@ export default defineNuxtConfig({
       ],
     },
   },
+  css: ['~/assets/css/main.css'],
   runtimeConfig: {
     dbPath: '.data/cyclodial.sqlite',
     seedDemo: '',
@@ -28,16 +49,22 @@ export default defineNuxtConfig({
     smtpUrl: '',
     mailFrom: 'Cyclodial <no-reply@cyclodial.test>',
     public: {
-      siteUrl: 'http://localhost:3000',
+      // Links in e-mails use this origin; empty means the request's own origin.
+      siteUrl: '',
     },
   },
-  tailwindcss: { configPath: 'tailwind.config.ts', cssPath: false },
+  dir: { app: '.' },
+  srcDir: '.',
+  compatibilityDate: '2025-07-15',
+  nitro: {
+    experimental: { tasks: true },
+  },
   vite: {
     optimizeDeps: {
       include: ['seedrandom', 'chart.js', 'vue-chartjs', '@vueuse/gesture', '@vueuse/core', 'zod'],
     },
   },
-  nitro: {
-    experimental: { tasks: true },
-  },
+  typescript: { strict: true },
+  telemetry: false,
+  tailwindcss: { configPath: 'tailwind.config.ts', cssPath: false },
 })

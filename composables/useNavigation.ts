@@ -1,0 +1,28 @@
+import type { Role } from '#shared/auth/roles'
+
+export interface NavItem { to: string, label: string }
+
+// The top navigation for each role. Features add their pages here.
+const NAV: Record<Role, NavItem[]> = {
+  student: [
+    { to: '/student', label: 'Home' },
+  ],
+  tutor: [
+    { to: '/tutor', label: 'Home' },
+  ],
+  lecturer: [
+    { to: '/lecturer', label: 'Home' },
+  ],
+  admin: [
+    { to: '/admin', label: 'Overview' },
+    { to: '/admin/users', label: 'Users' },
+    { to: '/admin/cohorts', label: 'Cohorts' },
+    { to: '/admin/outbox', label: 'Outbox' },
+    { to: '/admin/audit', label: 'Audit log' },
+  ],
+}
+
+export function useNavigation() {
+  const { user } = useUserSession()
+  return computed<NavItem[]>(() => (user.value ? NAV[user.value.role] : []))
+}

@@ -1,0 +1,29 @@
+// Opens the SQLite file through Kysely with the pragmas Cyclodial relies on,
+// and migrates it. Used by the server (server/utils/db.ts), scripts and tests.
+import { mkdirSync } from 'node:fs'
+import { dirname } from 'node:path'
+import SQLite from 'better-sqlite3'
+import { Kysely, Migrator, SqliteDialect } from 'kysely'
+import type { Database } from './schema'
+import { staticMigrationProvider } from './migrations'
+
+export function openDatabase(path: string): Kysely<Database> {
+  if (path !== ':memory:') mkdirSync(dirname(path), { recursive: true })
+  const sqlite = new SQLite(path)
+  sqlite.pragma('journal_mode = WAL')
+  sqlite.pragma('foreign_keys = ON')
+  sqlite.pragma('busy_timeout = 5000')
+  sqlite.pragma('synchronous = NORMAL')
+  return new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) })
+}
+
+export interface MigrationReport { name: string, status: 'Success' | 'Error' | 'NotExecuted' }
+
+/** Runs every pending migration; throws (after logging each result) on failure. */
+export async function migrateToLatest(db: Kysely<Database>, log: (line: string) => void = () => {}): Promise<MigrationReport[]> {
+  const migrator = new Migrator({ db, provider: staticMigrationProvider })
+  const { error, results = [] } = await migrator.migrateToLatest()
+  for (const r of results) log(`migration ${r.migrationName}: ${r.status}`)
+  if (error) throw error instanceof Error ? error : new Error(String(error))
+  return results.map(r => ({ name: r.migrationName, status: r.status }))
+}

@@ -1,0 +1,17 @@
+import { cohortBody, idParam } from '#shared/schemas/admin'
+
+export default defineEventHandler(async (event) => {
+  const admin = await requireRole(event, 'admin')
+  const { id } = paramsAs(event, idParam)
+  const { name } = await readBodyAs(event, cohortBody)
+  const db = await useDb()
+  const cohort = await db.selectFrom('cohorts').select(['id', 'name']).where('id', '=', id).executeTakeFirst()
+  if (!cohort) notFound('That cohort')
+  if (cohort.name === name) return cohort
+  await assertCohortNameFree(name, id)
+  await db.transaction().execute(async (trx) => {
+    await trx.updateTable('cohorts').set({ name, updated_at: nowIso() }).where('id', '=', id).execute()
+    await writeAudit(trx, { actorId: admin.id, action: 'cohort.renamed', targetType: 'cohort', targetId: id, detail: { from: cohort.name, to: name } })
+  })
+  return { id, name }
+})

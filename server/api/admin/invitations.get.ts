@@ -1,0 +1,27 @@
+import { pageQuery } from '#shared/schemas/admin'
+
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  const { page, pageSize } = queryAs(event, pageQuery)
+  const db = await useDb()
+  const base = db.selectFrom('invitations')
+  const { total } = await base.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
+  const rows = await base.leftJoin('cohorts', 'cohorts.id', 'invitations.cohort_id')
+    .select(['invitations.id', 'invitations.email', 'invitations.role', 'invitations.expires_at', 'invitations.used_at', 'invitations.created_at', 'cohorts.name as cohortName'])
+    .orderBy('invitations.id', 'desc').limit(pageSize).offset((page - 1) * pageSize).execute()
+  const now = Date.now()
+  return {
+    items: rows.map(r => ({
+      id: r.id,
+      email: r.email,
+      role: r.role,
+      cohortName: r.cohortName,
+      createdAt: r.created_at,
+      expiresAt: r.expires_at,
+      state: r.used_at ? 'accepted' : Date.parse(r.expires_at) <= now ? 'expired' : 'pending',
+    })),
+    total: Number(total),
+    page,
+    pageSize,
+  }
+})

@@ -1,0 +1,12 @@
+import { idParam } from '#shared/schemas/admin'
+
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const message = await db.selectFrom('outbox')
+    .select(['id', 'message_id as messageId', 'from_address as from', 'to_address as to', 'subject', 'text_body as text', 'received_at as receivedAt'])
+    .where('id', '=', id).executeTakeFirst()
+  if (!message) notFound('That message')
+  return message
+})

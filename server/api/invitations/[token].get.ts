@@ -1,0 +1,21 @@
+import { ROLE_LABELS } from '#shared/auth/roles'
+
+// Public: what an invitation link offers, so the page can show it before sign-up.
+export default defineEventHandler(async (event) => {
+  const token = getRouterParam(event, 'token') ?? ''
+  const db = await useDb()
+  const invitation = await db.selectFrom('invitations')
+    .leftJoin('cohorts', 'cohorts.id', 'invitations.cohort_id')
+    .select(['invitations.email', 'invitations.role', 'invitations.expires_at', 'invitations.used_at', 'cohorts.name as cohortName'])
+    .where('invitations.token_hash', '=', hashToken(token))
+    .executeTakeFirst()
+  const state = invitation ? tokenState(invitation) : 'missing'
+  if (!invitation || state !== 'usable') throw invitationGone(state)
+  return {
+    email: invitation.email,
+    role: invitation.role,
+    roleLabel: ROLE_LABELS[invitation.role],
+    cohortName: invitation.cohortName,
+    expiresAt: invitation.expires_at,
+  }
+})

@@ -1,0 +1,43 @@
+import { homeFor } from '#shared/auth/roles'
+import { acceptInvitationBody } from '#shared/schemas/auth'
+
+export default defineEventHandler(async (event) => {
+  const token = getRouterParam(event, 'token') ?? ''
+  const body = await readBodyAs(event, acceptInvitationBody)
+  const db = await useDb()
+  const invitation = await db.selectFrom('invitations').selectAll().where('token_hash', '=', hashToken(token)).executeTakeFirst()
+  const state = invitation ? tokenState(invitation) : 'missing'
+  if (!invitation || state !== 'usable') throw invitationGone(state)
+
+  const existing = await db.selectFrom('users').select('id').where('email', '=', invitation.email).executeTakeFirst()
+  if (existing) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'An account with this e-mail already exists. Sign in instead, or reset the password.', data: { code: 'account-exists' } })
+  }
+
+  const passwordHash = await hashPassword(body.password)
+  const now = nowIso()
+  const user = await db.transaction().execute(async (trx) => {
+    // Mark used first and check it changed a row, so two tabs cannot both accept.
+    const used = await trx.updateTable('invitations').set({ used_at: now })
+      .where('id', '=', invitation.id).where('used_at', 'is', null).executeTakeFirst()
+    if (Number(used.numUpdatedRows) !== 1) throw invitationGone('used')
+    const created = await trx.insertInto('users').values({
+      email: invitation.email,
+      name: body.name,
+      role: invitation.role,
+      password_hash: passwordHash,
+      disabled: 0,
+      created_at: now,
+      updated_at: now,
+      last_login_at: now,
+    }).returning(['id', 'email', 'name', 'role']).executeTakeFirstOrThrow()
+    if (invitation.cohort_id) {
+      await trx.insertInto('cohort_members').values({ cohort_id: invitation.cohort_id, user_id: created.id, created_at: now }).execute()
+    }
+    await writeAudit(trx, { actorId: created.id, action: 'invitation.accepted', targetType: 'user', targetId: created.id, detail: { invitationId: invitation.id } })
+    return created
+  })
+
+  await replaceUserSession(event, { user, loggedInAt: now })
+  return { user, home: homeFor(user.role) }
+})

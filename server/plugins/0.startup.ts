@@ -1,0 +1,13 @@
+// Start-up checks: refuse to serve in production without a session password,
+// then open, migrate and (when asked) seed the database straight away.
+export default defineNitroPlugin(() => {
+  const password = String(useRuntimeConfig().session?.password ?? '')
+  if (!import.meta.dev && password.length < 32) {
+    console.error('[cyclodial] NUXT_SESSION_PASSWORD must be set to at least 32 characters in production. Refusing to start.')
+    process.exit(1)
+  }
+  useDb().catch((error) => {
+    console.error(`[cyclodial] database start-up failed: ${error instanceof Error ? error.message : error}`)
+    process.exit(1)
+  })
+})

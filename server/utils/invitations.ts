@@ -1,0 +1,68 @@
+import type { H3Event } from 'h3'
+import type { Role } from '#shared/auth/roles'
+import { ROLE_LABELS } from '#shared/auth/roles'
+
+export interface InviteInput { email: string, role: Role, cohortId: number | null, invitedBy: number | null }
+
+/**
+ * Creates an invitation record (the link's token is stored hashed) and e-mails
+ * the link. The record is committed before the mail is tried, so a mail
+ * failure never loses it; the mail job is retried.
+ */
+export async function createInvitation(event: H3Event, input: InviteInput): Promise<{ id: number, link: string, mailSent: boolean }> {
+  const db = await useDb()
+  const { token, hash } = newToken()
+  const now = nowIso()
+  const { id } = await db.transaction().execute(async (trx) => {
+    const row = await trx.insertInto('invitations').values({
+      email: input.email,
+      role: input.role,
+      cohort_id: input.cohortId,
+      token_hash: hash,
+      invited_by: input.invitedBy,
+      expires_at: addMinutes(now, INVITATION_TTL_MINUTES),
+      used_at: null,
+      created_at: now,
+    }).returning('id').executeTakeFirstOrThrow()
+    await writeAudit(trx, {
+      actorId: input.invitedBy,
+      action: 'invitation.created',
+      targetType: 'invitation',
+      targetId: row.id,
+      detail: { email: input.email, role: input.role, cohortId: input.cohortId },
+    })
+    return row
+  })
+
+  const link = `${siteOrigin(event)}/invite/${token}`
+  const cohort = input.cohortId
+    ? await db.selectFrom('cohorts').select('name').where('id', '=', input.cohortId).executeTakeFirst()
+    : undefined
+  const { sent } = await sendMail({
+    to: input.email,
+    subject: 'You are invited to Cyclodial',
+    text: [
+      'Hello,',
+      '',
+      `You have been invited to Cyclodial as a ${ROLE_LABELS[input.role].toLowerCase()}${cohort ? ` in the ${cohort.name}` : ''}.`,
+      'Cyclodial is where you practise measuring and recording cyclotorsion with the double Maddox rod test on virtual patients.',
+      '',
+      `Open this link within 7 days to choose your name and password:`,
+      link,
+      '',
+      'The link works once. If you were not expecting it, you can ignore this message.',
+    ].join('\n'),
+  })
+  return { id, link, mailSent: sent }
+}
+
+export function invitationGone(state: string) {
+  return createError({
+    statusCode: 410,
+    statusMessage: 'Gone',
+    message: state === 'used'
+      ? 'This invitation has already been used. Sign in with the account it created.'
+      : 'This invitation has expired or is not valid. Ask your administrator for a new one.',
+    data: { code: `invitation-${state}` },
+  })
+}

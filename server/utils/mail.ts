@@ -1,0 +1,111 @@
+// Outgoing e-mail. Every message is first written to mail_jobs, then sent; a
+// failed send is logged and retried with back-off by the mail plugin, so an
+// invitation or reset record is never lost because the SMTP server hiccupped.
+import nodemailer from 'nodemailer'
+import type { Transporter } from 'nodemailer'
+import type { Kysely } from 'kysely'
+import type { Database } from '~~/db/schema'
+
+export interface MailMessage { to: string, subject: string, text: string, html?: string }
+
+export const MAX_MAIL_ATTEMPTS = 8
+
+let transporter: Transporter | null = null
+let catcherPort: number | null = null
+
+/** Set by the mail-catcher plugin once its SMTP server listens. */
+export function useCatcherPort(port: number): void {
+  catcherPort = port
+  transporter = null
+}
+
+export function mailCatcherEnabled(): boolean {
+  const flag = String(useRuntimeConfig().mailCatcher ?? '')
+  if (flag === '1' || flag === 'true') return true
+  if (flag === '0' || flag === 'false') return false
+  return import.meta.dev
+}
+
+function transport(): Transporter | null {
+  if (transporter) return transporter
+  if (mailCatcherEnabled()) {
+    if (!catcherPort) return null
+    transporter = nodemailer.createTransport({ host: '127.0.0.1', port: catcherPort, secure: false, ignoreTLS: true })
+    return transporter
+  }
+  const url = process.env.SMTP_URL || String(useRuntimeConfig().smtpUrl || '')
+  if (!url) return null
+  transporter = nodemailer.createTransport(url)
+  return transporter
+}
+
+function backoffMinutes(attempts: number): number {
+  return Math.min(60, 2 ** attempts / 2)
+}
+
+async function deliver(db: Kysely<Database>, jobId: number): Promise<boolean> {
+  const job = await db.selectFrom('mail_jobs').selectAll().where('id', '=', jobId).executeTakeFirst()
+  if (!job || job.status !== 'pending') return false
+  const t = transport()
+  const attempts = job.attempts + 1
+  try {
+    if (!t) throw new Error('No mail transport is configured (set SMTP_URL, or NUXT_MAIL_CATCHER=1 for development).')
+    await t.sendMail({
+      from: String(useRuntimeConfig().mailFrom),
+      to: job.to_address,
+      subject: job.subject,
+      text: job.text_body,
+      html: job.html_body ?? undefined,
+    })
+    await db.updateTable('mail_jobs')
+      .set({ status: 'sent', attempts, sent_at: nowIso(), last_error: null })
+      .where('id', '=', jobId).execute()
+    return true
+  }
+  catch (error) {
+    const message = error instanceof Error ? error.message : String(error)
+    console.warn(`[mail] job ${jobId} to ${job.to_address} failed (attempt ${attempts}): ${message}`)
+    await db.updateTable('mail_jobs').set({
+      status: attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
+      attempts,
+      last_error: message,
+      next_attempt_at: addMinutes(nowIso(), backoffMinutes(attempts)),
+    }).where('id', '=', jobId).execute()
+    return false
+  }
+}
+
+/** Queues a message and tries to send it at once; never throws for a send failure. */
+export async function sendMail(message: MailMessage): Promise<{ jobId: number, sent: boolean }> {
+  const db = await useDb()
+  const now = nowIso()
+  const { id } = await db.insertInto('mail_jobs').values({
+    to_address: message.to,
+    subject: message.subject,
+    text_body: message.text,
+    html_body: message.html ?? null,
+    status: 'pending',
+    attempts: 0,
+    next_attempt_at: now,
+    created_at: now,
+  }).returning('id').executeTakeFirstOrThrow()
+  const sent = await deliver(db, id)
+  return { jobId: id, sent }
+}
+
+/** Retries every pending job that is due. Returns how many were sent. */
+export async function deliverDueMail(): Promise<number> {
+  const db = await useDb()
+  const due = await db.selectFrom('mail_jobs').select('id')
+    .where('status', '=', 'pending').where('next_attempt_at', '<=', nowIso())
+    .orderBy('id').limit(50).execute()
+  let sent = 0
+  for (const { id } of due) if (await deliver(db, id)) sent++
+  return sent
+}
+
+/** The origin links in e-mails point at: configured site URL, else the request's. */
+export function siteOrigin(event: import('h3').H3Event): string {
+  const configured = String(useRuntimeConfig().public.siteUrl || '')
+  return (configured || getRequestURL(event).origin).replace(/\/$/, '')
+}

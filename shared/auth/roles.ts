@@ -1,0 +1,52 @@
+// Role rules shared by the pages (route middleware) and the server (requireRole).
+export const ROLES = ['student', 'tutor', 'lecturer', 'admin'] as const
+export type Role = typeof ROLES[number]
+
+export interface SessionUserData {
+  id: number
+  email: string
+  name: string
+  role: Role
+}
+
+const HOMES: Record<Role, string> = {
+  student: '/student',
+  tutor: '/tutor',
+  lecturer: '/lecturer',
+  admin: '/admin',
+}
+
+/** Where each role lands after signing in. */
+export function homeFor(role: Role): string {
+  return HOMES[role]
+}
+
+/** Staff who teach: tutors and lecturers (admins manage accounts, not teaching). */
+export const TEACHING_ROLES: readonly Role[] = ['tutor', 'lecturer']
+
+export function isRole(value: unknown): value is Role {
+  return typeof value === 'string' && (ROLES as readonly string[]).includes(value)
+}
+
+export function roleAllowed(role: Role | undefined | null, allowed: readonly Role[]): boolean {
+  return !!role && allowed.includes(role)
+}
+
+/**
+ * A redirect target after sign-in must stay on this site: a path starting with
+ * a single slash, no protocol-relative or backslash tricks.
+ */
+export function safeRedirect(target: unknown, fallback: string): string {
+  if (typeof target !== 'string') return fallback
+  if (!target.startsWith('/') || target.startsWith('//') || target.includes('\\')) return fallback
+  // No control characters (a header-splitting or URL-parsing trick).
+  if ([...target].some(ch => ch.charCodeAt(0) < 0x20)) return fallback
+  return target
+}
+
+export const ROLE_LABELS: Record<Role, string> = {
+  student: 'Student',
+  tutor: 'Tutor',
+  lecturer: 'Lecturer',
+  admin: 'Administrator',
+}

@@ -1,0 +1,37 @@
+import { z } from 'zod'
+import { ROLES } from '../auth/roles'
+
+export const emailField = z.string({ error: 'E-mail is required.' })
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ error: 'Enter a valid e-mail address.' }).max(254, { error: 'E-mail is too long.' }))
+
+export const passwordField = z.string({ error: 'Password is required.' })
+  .min(10, { error: 'Use at least 10 characters for the password.' })
+  .max(200, { error: 'Password is too long (200 characters at most).' })
+
+export const nameField = z.string({ error: 'Name is required.' })
+  .trim()
+  .min(1, { error: 'Name is required.' })
+  .max(120, { error: 'Name is too long (120 characters at most).' })
+
+export const loginBody = z.object({
+  email: emailField,
+  password: z.string({ error: 'Password is required.' }).min(1, { error: 'Password is required.' }).max(200),
+})
+
+export const forgotBody = z.object({ email: emailField })
+
+export const resetBody = z.object({
+  token: z.string({ error: 'The reset link is incomplete.' }).min(10).max(200),
+  password: passwordField,
+})
+
+export const acceptInvitationBody = z.object({
+  name: nameField,
+  password: passwordField,
+})
+
+export const roleField = z.enum(ROLES, { error: `Role must be one of: ${ROLES.join(', ')}.` })
+
+export type LoginBody = z.infer<typeof loginBody>

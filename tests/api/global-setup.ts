@@ -1,0 +1,18 @@
+import type { TestProject } from 'vitest/node'
+import { startServer } from '../support/server'
+
+declare module 'vitest' {
+  export interface ProvidedContext {
+    baseURL: string
+    dbPath: string
+  }
+}
+
+export default async function setup(project: TestProject) {
+  const server = await startServer()
+  project.provide('baseURL', server.baseURL)
+  project.provide('dbPath', server.dbPath)
+  return async () => {
+    await server.stop()
+  }
+}

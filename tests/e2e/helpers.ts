@@ -1,0 +1,16 @@
+import { expect, type Page } from '@playwright/test'
+
+export const DEMO_PASSWORD = 'cyclodial-demo'
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
+  await page.goto('/login')
+  await page.getByLabel('E-mail').fill(email)
+  await page.getByLabel('Password').fill(password)
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  await expect(page).not.toHaveURL(/\/login/)
+}
+
+export async function signOut(page: Page) {
+  await page.getByRole('button', { name: 'Sign out' }).click()
+  await expect(page).toHaveURL(/\/login/)
+}

@@ -1,0 +1,97 @@
+// Starts the BUILT server (.output) on a free port with a fresh SQLite file in
+// a temporary folder, the demo school seeded and the mail catcher on. Used by
+// the API tests, the end-to-end tests and the benchmarks.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { existsSync, mkdtempSync, rmSync } from 'node:fs'
+import { createServer } from 'node:net'
+import { tmpdir } from 'node:os'
+import { join, resolve } from 'node:path'
+
+export interface RunningServer {
+  baseURL: string
+  dbPath: string
+  dir: string
+  process: ChildProcess
+  output: () => string
+  stop: () => Promise<void>
+}
+
+export const TEST_SESSION_PASSWORD = 'test-only-session-password-0123456789abcdef'
+
+export function freePort(): Promise<number> {
+  return new Promise((res, rej) => {
+    const srv = createServer()
+    srv.unref()
+    srv.on('error', rej)
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address()
+      const port = typeof address === 'object' && address ? address.port : 0
+      srv.close(() => res(port))
+    })
+  })
+}
+
+export interface StartOptions {
+  env?: Record<string, string>
+  dbPath?: string
+  seed?: boolean
+  port?: number
+}
+
+export async function startServer(options: StartOptions = {}): Promise<RunningServer> {
+  const entry = resolve('.output/server/index.mjs')
+  if (!existsSync(entry)) throw new Error('No built server: run `npm run build` first.')
+  const dir = mkdtempSync(join(tmpdir(), 'cyclodial-test-'))
+  const dbPath = options.dbPath ?? join(dir, 'cyclodial.sqlite')
+  const port = options.port ?? await freePort()
+  const mailPort = await freePort()
+  let log = ''
+  const child = spawn(process.execPath, [entry], {
+    env: {
+      ...process.env,
+      NODE_ENV: 'production',
+      HOST: '127.0.0.1',
+      PORT: String(port),
+      NUXT_DB_PATH: dbPath,
+      NUXT_SEED_DEMO: options.seed === false ? '0' : '1',
+      NUXT_MAIL_CATCHER: '1',
+      NUXT_MAIL_CATCHER_PORT: String(mailPort),
+      NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
+      ...options.env,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  child.stdout!.on('data', (d) => { log += String(d) })
+  child.stderr!.on('data', (d) => { log += String(d) })
+
+  const baseURL = `http://127.0.0.1:${port}`
+  const deadline = Date.now() + 30_000
+  for (;;) {
+    if (child.exitCode !== null) throw new Error(`server exited (${child.exitCode}):\n${log}`)
+    try {
+      const res = await fetch(`${baseURL}/api/_auth/session`)
+      // Ready once the database is migrated and seeded (the mail catcher logs too).
+      if (res.ok && /demo school seeded|migration/.test(log) && /catcher listening/.test(log)) break
+    }
+    catch { /* not listening yet */ }
+    if (Date.now() > deadline) throw new Error(`server did not start within 30 s:\n${log}`)
+    await new Promise(r => setTimeout(r, 150))
+  }
+
+  return {
+    baseURL,
+    dbPath,
+    dir,
+    process: child,
+    output: () => log,
+    stop: async () => {
+      if (child.exitCode === null) {
+        const exited = new Promise(r => child.once('exit', r))
+        child.kill('SIGTERM')
+        await Promise.race([exited, new Promise(r => setTimeout(r, 5000))])
+        if (child.exitCode === null) child.kill('SIGKILL')
+      }
+      if (!options.dbPath) rmSync(dir, { recursive: true, force: true })
+    },
+  }
+}
