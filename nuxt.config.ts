@@ -46,6 +46,8 @@ export default defineNuxtConfig({
     seedDemo: '',
     mailCatcher: '',
     mailCatcherPort: '',
+    // First retry delay for mail that failed to send; doubles each attempt (max 1 h).
+    mailRetrySeconds: 30,
     smtpUrl: '',
     mailFrom: 'Cyclodial <no-reply@cyclodial.test>',
     public: {

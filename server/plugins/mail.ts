@@ -48,7 +48,7 @@ export default defineNitroPlugin((nitro) => {
 
   const timer = setInterval(() => {
     deliverDueMail().catch(error => console.error(`[mail] retry loop: ${error instanceof Error ? error.message : error}`))
-  }, 30_000)
+  }, Math.max(1, Math.min(30, Number(useRuntimeConfig().mailRetrySeconds) || 30)) * 1000)
   timer.unref()
 
   nitro.hooks.hook('close', () => {

@@ -39,8 +39,8 @@ function transport(): Transporter | null {
   return transporter
 }
 
-function backoffMinutes(attempts: number): number {
-  return Math.min(60, 2 ** attempts / 2)
+export function retryDelaySeconds(attempts: number, baseSeconds: number): number {
+  return Math.min(3600, baseSeconds * 2 ** Math.max(0, attempts - 1))
 }
 
 async function deliver(db: Kysely<Database>, jobId: number): Promise<boolean> {
@@ -69,7 +69,7 @@ async function deliver(db: Kysely<Database>, jobId: number): Promise<boolean> {
       status: attempts >= MAX_MAIL_ATTEMPTS ? 'failed' : 'pending',
       attempts,
       last_error: message,
-      next_attempt_at: addMinutes(nowIso(), backoffMinutes(attempts)),
+      next_attempt_at: new Date(Date.now() + 1000 * retryDelaySeconds(attempts, Number(useRuntimeConfig().mailRetrySeconds) || 30)).toISOString(),
     }).where('id', '=', jobId).execute()
     return false
   }

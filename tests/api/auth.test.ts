@@ -78,7 +78,7 @@ describe('sign-in and sign-out', () => {
     const client = new Client(baseURL)
     const page = await fetch(`${baseURL}/login`)
     const csp = page.headers.get('content-security-policy') ?? ''
-    expect(csp).toContain("frame-ancestors 'none'")
+    expect(csp).toContain('frame-ancestors \'none\'')
     expect(csp).not.toContain('unsafe-eval')
     expect(page.headers.get('referrer-policy')).toBeTruthy()
     const missing = await client.get('/api/no-such-route')

@@ -6,6 +6,7 @@ export type Access = 'public' | 'signed-in' | Role[]
 
 export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/[...]': 'public',
+  'GET /api/health': 'public',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'public',
   'POST /api/auth/forgot': 'public',

@@ -46,19 +46,20 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const port = options.port ?? await freePort()
   const mailPort = await freePort()
   let log = ''
+  const env: Record<string, string | undefined> = {
+    ...process.env,
+    NODE_ENV: 'production',
+    HOST: '127.0.0.1',
+    PORT: String(port),
+    NUXT_DB_PATH: dbPath,
+    NUXT_SEED_DEMO: options.seed === false ? '0' : '1',
+    NUXT_MAIL_CATCHER: '1',
+    NUXT_MAIL_CATCHER_PORT: String(mailPort),
+    NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
+    ...options.env,
+  }
   const child = spawn(process.execPath, [entry], {
-    env: {
-      ...process.env,
-      NODE_ENV: 'production',
-      HOST: '127.0.0.1',
-      PORT: String(port),
-      NUXT_DB_PATH: dbPath,
-      NUXT_SEED_DEMO: options.seed === false ? '0' : '1',
-      NUXT_MAIL_CATCHER: '1',
-      NUXT_MAIL_CATCHER_PORT: String(mailPort),
-      NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
-      ...options.env,
-    },
+    env,
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   child.stdout!.on('data', (d) => { log += String(d) })
@@ -69,9 +70,10 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited (${child.exitCode}):\n${log}`)
     try {
-      const res = await fetch(`${baseURL}/api/_auth/session`)
-      // Ready once the database is migrated and seeded (the mail catcher logs too).
-      if (res.ok && /demo school seeded|migration/.test(log) && /catcher listening/.test(log)) break
+      // Ready once the database is migrated (and seeded), and the mail catcher listens.
+      const res = await fetch(`${baseURL}/api/health`)
+      const catcherReady = env.NUXT_MAIL_CATCHER !== '1' || /catcher listening/.test(log)
+      if (res.ok && catcherReady) break
     }
     catch { /* not listening yet */ }
     if (Date.now() > deadline) throw new Error(`server did not start within 30 s:\n${log}`)
