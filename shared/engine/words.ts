@@ -73,7 +73,9 @@ function observe(view: PatientView, rng: Rng): Observation[] {
   }
 
   const rel = wrapAxisDifference(view.streaks.RE.perceivedAngle - view.streaks.LE.perceivedAngle)
-  const parallel = Math.abs(rel) < threshold
+  const bothLevel = EYES.every((e) => isLevel(view.streaks[e].perceivedAngle, threshold))
+  // two lines that each look level are called parallel, whatever the small sum of their tilts
+  const parallel = bothLevel || Math.abs(rel) < threshold
   if (view.overlap) {
     out.push({ kind: 'overlap', crossing: !parallel })
     return out
@@ -83,7 +85,7 @@ function observe(view: PatientView, rng: Rng): Observation[] {
   if (coarse && !parallel && Math.abs(rel) < 2 * threshold && rng() < 0.5) {
     out.push({ kind: 'unsure' })
   } else if (parallel) {
-    out.push({ kind: 'parallel', level: EYES.every((e) => isLevel(view.streaks[e].perceivedAngle, threshold)) })
+    out.push({ kind: 'parallel', level: bothLevel })
   } else {
     out.push({ kind: 'not-parallel' })
   }
