@@ -18,6 +18,8 @@ interface Clause {
   andFollows: boolean
   eyeLast: boolean
   each: boolean
+  /** Eye-first clause with nothing in it, straight before another eye ("RE LE 5 ex"). */
+  emptyBeforeOwner?: boolean
 }
 
 type Item = { kind: 'clause'; clause: Clause } | { kind: 'gaze'; gaze: Gaze; degrees?: number; at: number; text: string }
@@ -56,6 +58,7 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
               andFollows: andFollows && k === owners.length - 1,
               eyeLast: !eyeFirst,
               each,
+              emptyBeforeOwner: eyeFirst && from === to && k < owners.length - 1,
             },
           })
         })
@@ -255,6 +258,10 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
     const text = clauseText(c) || (c.owner ?? '')
     if (c.owner === 'RE' || c.owner === 'LE') {
       if (rec === null) {
+        if (c.emptyBeforeOwner) {
+          problems.push({ code: 'unclear-eye', eye: c.owner, text, message: `"${c.owner}" is followed straight by another eye: say each eye's finding.` })
+          continue
+        }
         if (c.andFollows) pending.push(c.owner)
         else if (!current.eyes[c.owner]) {
           current.eyes[c.owner] = { amount: null, direction: null }
