@@ -17,8 +17,12 @@ describe('start-up', () => {
       stdio: ['ignore', 'pipe', 'pipe'],
     })
     let out = ''
-    child.stderr.on('data', (d) => { out += String(d) })
-    child.stdout.on('data', (d) => { out += String(d) })
+    child.stderr.on('data', (d) => {
+      out += String(d)
+    })
+    child.stdout.on('data', (d) => {
+      out += String(d)
+    })
     const code = await new Promise<number | null>(r => child.once('exit', r))
     rmSync(dir, { recursive: true, force: true })
     expect(code).toBe(1)
@@ -71,8 +75,13 @@ describe('start-up', () => {
         logger: false,
         onData(stream, _s, cb) {
           let raw = ''
-          stream.on('data', (c) => { raw += String(c) })
-          stream.on('end', () => { received.push(raw); cb() })
+          stream.on('data', (c) => {
+            raw += String(c)
+          })
+          stream.on('end', () => {
+            received.push(raw)
+            cb()
+          })
         },
       })
       await new Promise<void>(r => smtp!.listen(smtpPort, '127.0.0.1', () => r()))

@@ -62,8 +62,12 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     env,
     stdio: ['ignore', 'pipe', 'pipe'],
   })
-  child.stdout!.on('data', (d) => { log += String(d) })
-  child.stderr!.on('data', (d) => { log += String(d) })
+  child.stdout!.on('data', (d) => {
+    log += String(d)
+  })
+  child.stderr!.on('data', (d) => {
+    log += String(d)
+  })
 
   const baseURL = `http://127.0.0.1:${port}`
   const deadline = Date.now() + 30_000
