@@ -4,7 +4,7 @@
 
 import { z } from 'zod'
 import { eyeSchema, gazeSchema, signedTorsionSchema } from './schemas'
-import { GAZES } from './types'
+import { GAZES, MUSCLES } from './types'
 
 export const CONDITIONS = [
   'normal',
@@ -52,6 +52,8 @@ export const caseSpecSchema = z
     label: z.string().max(120, { error: 'Keep the label under 120 characters.' }).optional(),
     condition: z.enum(CONDITIONS, { error: `Condition must be one of: ${CONDITIONS.join(', ')}.` }).default('hand-authored'),
     affectedEye: eyeSchema.optional(),
+    /** The palsied muscle(s), so the three-step interpretation can be marked. */
+    palsiedMuscles: z.array(z.enum(MUSCLES, { error: `Muscles are: ${MUSCLES.join(', ')}.` })).max(2).default([]),
     fixingEye: eyeSchema.default('RE'),
     /** Findings in primary position (required) and in any other position; missing positions copy primary. */
     gazes: z

@@ -27,8 +27,8 @@ export interface ResponseCues {
 }
 
 export interface PositionView {
-  /** Deviation between the eyes, Δ: vertical + = right eye higher; horizontal + = eso. */
-  deviation: { vertical: number; horizontal: PerDistance<number> }
+  /** Misalignment of the eyes, Δ: vertical + = right eye higher; horizontal + = eso. */
+  alignment: { vertical: number; horizontal: PerDistance<number> }
   /**
    * Learner-turns only: the rod-axis reading (ISO 8429) at which each eye's streak
    * looks horizontal in a dim room with no prism. The bench adds the prism artefact

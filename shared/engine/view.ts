@@ -27,7 +27,7 @@ export interface BenchSetting {
 /** What a view needs, whether it comes from a presentation or from the case. */
 export interface ViewSource {
   horizontalAt: PerEye<number>
-  deviation: { vertical: number; horizontal: PerDistance<number> }
+  alignment: { vertical: number; horizontal: PerDistance<number> }
   fixingEye: Eye
   streaks: PerEye<StreakLook>
   response: ResponseCues
@@ -77,8 +77,8 @@ function isSuppressed(source: ViewSource, eye: Eye, setting: BenchSetting): bool
 
 export function buildView(source: ViewSource, setting: BenchSetting): PatientView {
   const deviation = {
-    vertical: source.deviation.vertical,
-    horizontal: source.deviation.horizontal[setting.distance],
+    vertical: source.alignment.vertical,
+    horizontal: source.alignment.horizontal[setting.distance],
   }
   const offsets = streakOffsets(deviation, setting.prisms, source.fixingEye)
   const streaks = mapEyes(source.streaks, (look, eye): SeenStreak => {
@@ -111,7 +111,7 @@ export function viewFromPresentation(presentation: Presentation, setting: BenchS
   return buildView(
     {
       horizontalAt: position.horizontalAt,
-      deviation: position.deviation,
+      alignment: position.alignment,
       fixingEye: presentation.fixingEye,
       streaks: presentation.streaks,
       response: presentation.response,

@@ -166,7 +166,7 @@ function buildFromSpec(s: CaseSpecParsed, key: string): Case {
     difficulty: null,
     label: s.label ?? 'Hand-authored case',
     affectedEye: s.affectedEye ?? null,
-    palsiedMuscles: [],
+    palsiedMuscles: [...s.palsiedMuscles],
     fixingEye: s.fixingEye,
     gazes,
     headTilt: s.headTilt ?? { right: v0, left: v0 },

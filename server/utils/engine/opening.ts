@@ -38,7 +38,7 @@ const SINCE_CHILDHOOD = [
 ]
 const HEAD_POSTURE = [
   'People tell me I have held my head on one side in photos for years.',
-  "My head has leant to one side for as long as I can remember; the doubling is newer.",
+  "My head has leant to one side for years, as far back as I can remember; the doubling is newer.",
 ]
 const SUDDEN = ['It came on suddenly, with some dizziness.', 'I felt unsteady on my feet when the double vision began.']
 const GRITTY = ['My eyes feel gritty and look more prominent than they used to.', 'My eyes have felt sore and look a bit staring lately.']

@@ -18,7 +18,7 @@ export function caseViewSource(c: Case, gaze: Gaze): ViewSource {
   const f = c.gazes[gaze]
   return {
     horizontalAt: horizontalAtFor(c, gaze),
-    deviation: { vertical: f.vertical, horizontal: { ...f.horizontal } },
+    alignment: { vertical: f.vertical, horizontal: { ...f.horizontal } },
     fixingEye: c.fixingEye,
     streaks: STREAK_LOOKS,
     response: responseCues(c),

@@ -57,7 +57,7 @@ export function toPresentation(c: Case, mode: Mode): Presentation {
   const positions = Object.fromEntries(
     GAZES.map((g): [Gaze, PositionView] => {
       const f = c.gazes[g]
-      const view: PositionView = { deviation: { vertical: f.vertical, horizontal: { ...f.horizontal } } }
+      const view: PositionView = { alignment: { vertical: f.vertical, horizontal: { ...f.horizontal } } }
       if (mode === 'learner-turns') view.horizontalAt = horizontalAtFor(c, g)
       return [g, view]
     }),
