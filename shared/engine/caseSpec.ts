@@ -58,7 +58,7 @@ export const caseSpecSchema = z
     /** Findings in primary position (required) and in any other position; missing positions copy primary. */
     gazes: z
       .partialRecord(gazeSchema, findingSpecSchema)
-      .refine((g) => g.primary !== undefined, { error: 'Give the findings in primary position.' }),
+      .refine(g => g.primary !== undefined, { error: 'Give the findings in primary position.' }),
     headTilt: z.object({ right: prismDioptres('Head-tilt deviation'), left: prismDioptres('Head-tilt deviation') }).optional(),
     supine: prismDioptres('Supine deviation').optional(),
     response: z.object({

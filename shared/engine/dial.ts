@@ -40,7 +40,7 @@ export function torsionToReading(eye: Eye, torsion: number): number {
  * Direction of a dial angle as the EXAMINER sees it (ISO 8429: 0° at the examiner's
  * right, counter-clockwise): a unit vector with x to the examiner's right, y up.
  */
-export function dialDirectionExaminerView(angle: number): { x: number; y: number } {
+export function dialDirectionExaminerView(angle: number): { x: number, y: number } {
   const rad = (angle * Math.PI) / 180
   return { x: Math.cos(rad), y: Math.sin(rad) }
 }

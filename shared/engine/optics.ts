@@ -84,7 +84,7 @@ export function prismImageShift(prism: Prism): Offset {
 
 const sumShift = (prisms: readonly Prism[], eye: Eye): Offset =>
   prisms
-    .filter((p) => p.eye === eye)
+    .filter(p => p.eye === eye)
     .map(prismImageShift)
     .reduce((a, b) => ({ x: a.x + b.x, y: a.y + b.y }), { x: 0, y: 0 })
 

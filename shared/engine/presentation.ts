@@ -28,7 +28,7 @@ export interface ResponseCues {
 
 export interface PositionView {
   /** Misalignment of the eyes, Δ: vertical + = right eye higher; horizontal + = eso. */
-  alignment: { vertical: number; horizontal: PerDistance<number> }
+  alignment: { vertical: number, horizontal: PerDistance<number> }
   /**
    * Learner-turns only: the rod-axis reading (ISO 8429) at which each eye's streak
    * looks horizontal in a dim room with no prism. The bench adds the prism artefact
@@ -42,7 +42,7 @@ export interface CoverTest {
   /** Vertical deviation in Δ at near, + = right eye higher (R/L), − = left eye higher. */
   gaze: Record<Gaze, number>
   /** Primary position with the head tilted to the patient's right / left. */
-  headTilt: { right: number; left: number }
+  headTilt: { right: number, left: number }
   /** Primary position lying down (upright–supine test). */
   supine: number
 }

@@ -105,10 +105,10 @@ export function findRuleSwap(
 ): Slip | null {
   const counts: Record<Eye, number> = { RE: 0, LE: 0 }
   for (const a of attempts) {
-    const reversed = new Set(a.slips.filter((s) => s.code === 'direction-reversed' && s.eye).map((s) => s.eye!))
+    const reversed = new Set(a.slips.filter(s => s.code === 'direction-reversed' && s.eye).map(s => s.eye!))
     if (reversed.size === 1) counts[[...reversed][0]!] += 1
   }
-  const candidates = (['RE', 'LE'] as const).filter((e) => counts[e] >= minimum)
+  const candidates = (['RE', 'LE'] as const).filter(e => counts[e] >= minimum)
   if (candidates.length !== 1) return null
   const eye = candidates[0]!
   const other = eye === 'RE' ? 'LE' : 'RE'

@@ -27,7 +27,7 @@ export interface BenchSetting {
 /** What a view needs, whether it comes from a presentation or from the case. */
 export interface ViewSource {
   horizontalAt: PerEye<number>
-  alignment: { vertical: number; horizontal: PerDistance<number> }
+  alignment: { vertical: number, horizontal: PerDistance<number> }
   fixingEye: Eye
   streaks: PerEye<StreakLook>
   response: ResponseCues
@@ -56,7 +56,7 @@ export interface PatientView {
 
 /** Stable key of a setting, rounded to whole degrees so words do not flicker while dragging. */
 export function settingKey(setting: BenchSetting): string {
-  const prisms = setting.prisms.map((p) => `${p.eye}${p.base}${p.power}`).join(',')
+  const prisms = setting.prisms.map(p => `${p.eye}${p.base}${p.power}`).join(',')
   return [
     setting.gaze,
     setting.distance,
@@ -125,4 +125,4 @@ export function viewFromPresentation(presentation: Presentation, setting: BenchS
 export const relativeTilt = (view: PatientView): number =>
   wrapAxisDifference(view.streaks.RE.perceivedAngle - view.streaks.LE.perceivedAngle)
 
-export const visibleEyes = (view: PatientView): Eye[] => EYES.filter((e) => view.streaks[e].visible)
+export const visibleEyes = (view: PatientView): Eye[] => EYES.filter(e => view.streaks[e].visible)

@@ -12,17 +12,17 @@ import type { PatientView, SeenStreak } from './view'
 
 export type SlopeSize = 'slight' | 'clear' | 'steep'
 
-export type Observation =
-  | { kind: 'lights-on' }
-  | { kind: 'none-seen' }
-  | { kind: 'one-line'; seen: Eye }
-  | { kind: 'out-of-view'; eye: Eye }
-  | { kind: 'overlap'; crossing: boolean }
-  | { kind: 'level'; eye: Eye }
-  | { kind: 'slopes'; eye: Eye; lowEnd: 'left' | 'right'; towards: 'nose' | 'ear'; size: SlopeSize }
-  | { kind: 'parallel'; level: boolean }
-  | { kind: 'not-parallel' }
-  | { kind: 'unsure'; eye?: Eye }
+export type Observation
+  = | { kind: 'lights-on' }
+    | { kind: 'none-seen' }
+    | { kind: 'one-line', seen: Eye }
+    | { kind: 'out-of-view', eye: Eye }
+    | { kind: 'overlap', crossing: boolean }
+    | { kind: 'level', eye: Eye }
+    | { kind: 'slopes', eye: Eye, lowEnd: 'left' | 'right', towards: 'nose' | 'ear', size: SlopeSize }
+    | { kind: 'parallel', level: boolean }
+    | { kind: 'not-parallel' }
+    | { kind: 'unsure', eye?: Eye }
 
 export interface PatientWords {
   text: string
@@ -42,7 +42,7 @@ export function slopeSize(angle: number): SlopeSize {
  * toward the nose or the ear of the eye that sees it. A counter-clockwise streak
  * (positive angle) has its left end lower; the RE's nose is on the patient's left.
  */
-export function slopeOf(eye: Eye, perceived: number): { lowEnd: 'left' | 'right'; towards: 'nose' | 'ear' } {
+export function slopeOf(eye: Eye, perceived: number): { lowEnd: 'left' | 'right', towards: 'nose' | 'ear' } {
   const lowEnd = perceived > 0 ? 'left' : 'right'
   const noseSide = eye === 'RE' ? 'left' : 'right'
   return { lowEnd, towards: lowEnd === noseSide ? 'nose' : 'ear' }
@@ -57,7 +57,7 @@ function observe(view: PatientView, rng: Rng): Observation[] {
   const coarse = reliability === 'coarse'
   if (view.lights === 'on') out.push({ kind: 'lights-on' })
 
-  const visible = EYES.filter((e) => view.streaks[e].visible)
+  const visible = EYES.filter(e => view.streaks[e].visible)
   if (visible.length === 0) {
     out.push({ kind: 'none-seen' })
     return out
@@ -73,7 +73,7 @@ function observe(view: PatientView, rng: Rng): Observation[] {
   }
 
   const rel = wrapAxisDifference(view.streaks.RE.perceivedAngle - view.streaks.LE.perceivedAngle)
-  const bothLevel = EYES.every((e) => isLevel(view.streaks[e].perceivedAngle, threshold))
+  const bothLevel = EYES.every(e => isLevel(view.streaks[e].perceivedAngle, threshold))
   // two lines that each look level are called parallel, whatever the small sum of their tilts
   const parallel = bothLevel || Math.abs(rel) < threshold
   if (view.overlap) {
@@ -84,9 +84,11 @@ function observe(view: PatientView, rng: Rng): Observation[] {
   // coarse patients hedge when the two lines are close to parallel
   if (coarse && !parallel && Math.abs(rel) < 2 * threshold && rng() < 0.5) {
     out.push({ kind: 'unsure' })
-  } else if (parallel) {
+  }
+  else if (parallel) {
     out.push({ kind: 'parallel', level: bothLevel })
-  } else {
+  }
+  else {
     out.push({ kind: 'not-parallel' })
   }
   return out
@@ -106,9 +108,9 @@ function say(o: Observation, view: PatientView, coarse: boolean, rng: Rng): stri
   const name = (e: Eye) => colourName(view.streaks[e])
   switch (o.kind) {
     case 'lights-on':
-      return "With the room lights on it's hard to pick the lines out."
+      return 'With the room lights on it\'s hard to pick the lines out.'
     case 'none-seen':
-      return "I can't see any lines at all."
+      return 'I can\'t see any lines at all.'
     case 'one-line':
       return `I can only see one line — ${name(o.seen)}.`
     case 'out-of-view':
@@ -116,9 +118,10 @@ function say(o: Observation, view: PatientView, coarse: boolean, rng: Rng): stri
     case 'overlap':
       return o.crossing
         ? 'The lines are on top of each other — they cross in the middle.'
-        : "The lines are on top of each other; I can't tell them apart."
+        : 'The lines are on top of each other; I can\'t tell them apart.'
     case 'level':
-      return coarse ? pick(rng, [`${capital(name(o.eye))} looks straight.`, `${capital(name(o.eye))} seems flat enough.`])
+      return coarse
+        ? pick(rng, [`${capital(name(o.eye))} looks straight.`, `${capital(name(o.eye))} seems flat enough.`])
         : `${capital(name(o.eye))} looks level.`
     case 'slopes':
       if (coarse && rng() < 0.35) {
@@ -132,11 +135,11 @@ function say(o: Observation, view: PatientView, coarse: boolean, rng: Rng): stri
     case 'parallel':
       return o.level ? 'They both look level — parallel now.' : 'They look parallel to each other now.'
     case 'not-parallel':
-      return coarse ? pick(rng, ["They're not quite the same.", "They don't match."]) : "They aren't parallel."
+      return coarse ? pick(rng, ['They\'re not quite the same.', 'They don\'t match.']) : 'They aren\'t parallel.'
     case 'unsure':
       return o.eye
         ? `I think ${name(o.eye)} is level… I'm not sure.`
-        : pick(rng, ['They look about the same, I think.', "I'm not sure — nearly?"])
+        : pick(rng, ['They look about the same, I think.', 'I\'m not sure — nearly?'])
   }
 }
 
@@ -145,6 +148,6 @@ export function describeView(view: PatientView): PatientWords {
   const rng = makeRng(`${view.wordsKey}|words`)
   const observations = observe(view, rng)
   const coarse = view.response.reliability === 'coarse'
-  const text = observations.map((o) => say(o, view, coarse, rng)).join(' ')
+  const text = observations.map(o => say(o, view, coarse, rng)).join(' ')
   return { text, observations }
 }

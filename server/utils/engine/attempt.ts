@@ -64,7 +64,7 @@ export function revealTruth(c: Case, gaze: Gaze, distance?: Distance, tolerance?
     gaze,
     torsion: { ...f.reported },
     objectiveTorsion: { ...f.torsion },
-    directions: mapEyes(f.reported, (t) => (Math.abs(t) < 0.5 ? 'none' : t > 0 ? 'excyclo' : 'incyclo')),
+    directions: mapEyes(f.reported, t => (Math.abs(t) < 0.5 ? 'none' : t > 0 ? 'excyclo' : 'incyclo')),
     levelAt: horizontalAtFor(c, gaze),
     palsiedMuscles: [...c.palsiedMuscles],
     modelRecord: mustNotTest(c) ? NOT_PERFORMED_RECORD : modelRecord({ torsion: f.reported, gaze, distance, tolerance }),
@@ -92,8 +92,8 @@ export function gradeAttempt(c: Case, a: AttemptInput, ctx: AttemptContext): Att
     shouldNotTest: mustNotTest(c),
     options: ctx.options,
   }
-  const result =
-    ctx.mode === 'patient-turns'
+  const result
+    = ctx.mode === 'patient-turns'
       ? gradeRecord({
           ...base,
           patientSettings: patientSetsRods(c, { gaze: a.gaze, distance: a.distance, prisms, lights: a.lights, trial: ctx.trial ?? 1 }).readings,

@@ -35,14 +35,14 @@ export interface CaseDraft {
 }
 
 const both = (re: GazeNumbers, le: GazeNumbers): Record<Gaze, PerEye<number>> =>
-  Object.fromEntries(Object.keys(re).map((g) => [g, { RE: re[g as Gaze], LE: le[g as Gaze] }])) as Record<Gaze, PerEye<number>>
+  Object.fromEntries(Object.keys(re).map(g => [g, { RE: re[g as Gaze], LE: le[g as Gaze] }])) as Record<Gaze, PerEye<number>>
 
 const constant = (v: number): GazeNumbers => byGaze(() => v)
 
 const comitantHorizontal = (rng: Rng, r: TemplateRanges): Record<Gaze, PerDistance<number>> => {
   const near = drawInRange(rng, r.horizontal.near)
   const distance = drawInRange(rng, r.horizontal.distance)
-  return Object.fromEntries(Object.keys(constant(0)).map((g) => [g, { near, distance }])) as Record<Gaze, PerDistance<number>>
+  return Object.fromEntries(Object.keys(constant(0)).map(g => [g, { near, distance }])) as Record<Gaze, PerDistance<number>>
 }
 
 const noVertical = (): VerticalPattern => ({ gazes: constant(0), headTilt: { right: 0, left: 0 }, supine: 0 })
@@ -116,9 +116,9 @@ function ted(rng: Rng, t: CaseTemplate): CaseDraft {
   // restriction is worst on looking up (the tight muscle is stretched); the three-step
   // test does not apply to a restriction
   const upFactor = (v: number) => (v > 0 ? 1 + kUp : v < 0 ? 1 - kDown : 1)
-  const gazes = byGaze((g) => -m * upFactor(GAZE_VECTOR[g].v) * (1 + 0.2 * GAZE_VECTOR[g].h))
-  const re = byGaze((g) => amount * share * (1 + gain * GAZE_VECTOR[g].v))
-  const le = bilateral ? byGaze((g) => amount * (1 - share) * (1 + gain * GAZE_VECTOR[g].v)) : constant(fellow)
+  const gazes = byGaze(g => -m * upFactor(GAZE_VECTOR[g].v) * (1 + 0.2 * GAZE_VECTOR[g].h))
+  const re = byGaze(g => amount * share * (1 + gain * GAZE_VECTOR[g].v))
+  const le = bilateral ? byGaze(g => amount * (1 - share) * (1 + gain * GAZE_VECTOR[g].v)) : constant(fellow)
   const torsion = both(re, le)
   return {
     torsion,
@@ -147,10 +147,11 @@ function skew(rng: Rng, t: CaseTemplate): CaseDraft {
     const hypo = drawInRange(rng, r.torsion)
     const gain = drawInRange(rng, r.fieldGain)
     torsion = both(
-      byGaze((g) => -hyper * (1 + gain * GAZE_VECTOR[g].v)),
-      byGaze((g) => hypo * (1 - gain * GAZE_VECTOR[g].v)),
+      byGaze(g => -hyper * (1 + gain * GAZE_VECTOR[g].v)),
+      byGaze(g => hypo * (1 - gain * GAZE_VECTOR[g].v)),
     )
-  } else {
+  }
+  else {
     torsion = both(constant(normalEyeTorsion(rng)), constant(normalEyeTorsion(rng)))
   }
   return {

@@ -116,7 +116,7 @@ export interface SpecIssue {
   message: string
 }
 
-export type SpecResult = { ok: true; case: Case } | { ok: false; issues: SpecIssue[] }
+export type SpecResult = { ok: true, case: Case } | { ok: false, issues: SpecIssue[] }
 
 /** A short stable key for a hand-authored case (FNV-1a of its JSON). */
 export function specKey(spec: unknown): string {
@@ -137,7 +137,7 @@ export function caseFromSpec(input: CaseSpec | unknown): SpecResult {
   if (!parsed.success) {
     return {
       ok: false,
-      issues: parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
+      issues: parsed.error.issues.map(i => ({ path: i.path.join('.'), message: i.message })),
     }
   }
   return { ok: true, case: buildFromSpec(parsed.data, specKey(input)) }
@@ -150,7 +150,7 @@ function buildFromSpec(s: CaseSpecParsed, key: string): Case {
     const horizontal = typeof f.horizontal === 'number' ? { near: f.horizontal, distance: f.horizontal } : f.horizontal
     return { torsion: { ...f.torsion }, reported: { ...(f.reported ?? f.torsion) }, vertical: f.vertical, horizontal: { ...horizontal } }
   }
-  const gazes = Object.fromEntries(GAZES.map((g) => [g, finding(g)])) as Record<Gaze, GazeFinding>
+  const gazes = Object.fromEntries(GAZES.map(g => [g, finding(g)])) as Record<Gaze, GazeFinding>
   const v0 = gazes.primary.vertical
   const response: Case['response'] = {
     reliabilitySd: s.response.reliabilitySd,
@@ -172,7 +172,7 @@ function buildFromSpec(s: CaseSpecParsed, key: string): Case {
     headTilt: s.headTilt ?? { right: v0, left: v0 },
     supine: s.supine ?? v0,
     response,
-    opening: s.opening ?? "I've been asked to come in for an eye-movement check.",
+    opening: s.opening ?? 'I\'ve been asked to come in for an eye-movement check.',
     sources: ['Hand-authored by a tutor'],
   }
 }

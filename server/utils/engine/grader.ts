@@ -3,13 +3,12 @@
 // error-carried-forward from the learner's own dial readings; slips (§5.3).
 
 import { readingToTorsion, torsionToReading, wrapAxisDifference } from '#shared/engine/dial'
-import { parseRecord, readAsLine } from '#shared/engine/parser'
+import { parseRecord, readAsLine, GAZE_LABEL } from '#shared/engine/parser'
 import type { EyeRecord, GazeSection, ParsedRecord } from '#shared/engine/parser'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { Slip, SlipCode } from '#shared/engine/slips'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 import { EYES, otherEye } from '#shared/engine/types'
-import { GAZE_LABEL } from '#shared/engine/parser'
 import { NOT_PERFORMED_RECORD, modelRecord } from './modelRecord'
 
 export const GRADE_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason'] as const
@@ -53,7 +52,7 @@ export interface GradeResult {
   marks: GradeMark[]
   /** Weighted score, 0–1. */
   score: number
-  points: { earned: number; possible: number }
+  points: { earned: number, possible: number }
   slips: Slip[]
   modelRecord: string
   explanation: string[]
@@ -87,7 +86,7 @@ const mean = (xs: number[]): number => (xs.length === 0 ? 1 : xs.reduce((a, b) =
 
 /** The section of a record that concerns the graded position of gaze. */
 function sectionFor(p: ParsedRecord, gaze?: Gaze): GazeSection {
-  if (gaze && p.sections.length > 1) return p.sections.find((s) => s.gaze === gaze) ?? p.sections[0]!
+  if (gaze && p.sections.length > 1) return p.sections.find(s => s.gaze === gaze) ?? p.sections[0]!
   return p.sections[0]!
 }
 
@@ -118,15 +117,17 @@ function judge(r: EyeRecord, t: number, eye: Eye, tol: number): EyeVerdict {
     amount = 0
     amountReason = `${eye}: no amount.`
     slips.push({ code: 'amount-missing', eye })
-  } else if (a >= DIAL_FIGURE_FROM && a <= 180) {
+  }
+  else if (a >= DIAL_FIGURE_FROM && a <= 180) {
     amount = 0
     amountReason = `${eye}: ${a}° is a dial figure; the amount is the change from 90°.`
     slips.push({ code: 'dial-value-as-amount', eye, detail: `wrote ${a}°; ${Math.abs(a - 90)}° from 90° is the amount` })
-  } else {
+  }
+  else {
     const err = Math.abs(a - Math.abs(t))
     amount = band(err, tol)
-    amountReason =
-      amount === 1
+    amountReason
+      = amount === 1
         ? `${eye}: ${a}° is within ${tol}° of ${deg(t)}.`
         : `${eye}: ${a}° is ${deg(err)} from ${deg(t)}${amount === 0.5 ? ' (partial credit within twice the tolerance)' : ''}.`
     if (err > tol) slips.push({ code: 'amount-off', eye, detail: `${a}° recorded, ${deg(t)} found` })
@@ -138,17 +139,21 @@ function judge(r: EyeRecord, t: number, eye: Eye, tol: number): EyeVerdict {
     direction = missing ? 0 : 1
     directionReason = missing ? `${eye}: no direction given.` : `${eye}: no meaningful torsion to give a direction to.`
     if (missing) slips.push({ code: 'direction-missing', eye })
-  } else if (r.direction === null) {
+  }
+  else if (r.direction === null) {
     direction = 0
     directionReason = `${eye}: no direction given.`
     slips.push({ code: 'direction-missing', eye })
-  } else if (r.direction === 'none') {
+  }
+  else if (r.direction === 'none') {
     direction = 0
     directionReason = `${eye}: recorded no torsion, but the eye is ${dirWord(t)}torted.`
-  } else if ((r.direction === 'excyclo') === t > 0) {
+  }
+  else if ((r.direction === 'excyclo') === (t > 0)) {
     direction = 1
     directionReason = `${eye}: ${r.direction} is right.`
-  } else {
+  }
+  else {
     direction = 0
     directionReason = `${eye}: ${r.direction} is reversed; the eye is ${dirWord(t)}torted.`
     slips.push({ code: 'direction-reversed', eye })
@@ -209,7 +214,7 @@ function gradeNotTestable(input: RecordGradeInput, parsed: ParsedRecord): GradeR
   })
   if (!stopped) slips.push({ code: 'should-not-test' })
   const reasons = parsed.notPerformed?.reasons ?? []
-  const named = reasons.some((r) => r !== 'unstated')
+  const named = reasons.some(r => r !== 'unstated')
   marks.push({
     criterion: 'reason',
     weight: weightOf(o, 'reason'),
@@ -278,7 +283,8 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
         scores.push(band(err, readTol))
         reasons.push(err <= readTol ? `${eye}: read ${deg(r)} correctly.` : `${eye}: read ${deg(r)} but the patient left the rod at ${deg(at)}.`)
         if (err > readTol) slips.push({ code: 'not-parallel', eye, detail: `read ${deg(r)}, rod at ${deg(at)}` })
-      } else {
+      }
+      else {
         const at = input.levelAt?.[eye] ?? torsionToReading(eye, input.expected[eye])
         const err = Math.abs(wrapAxisDifference(r - at))
         scores.push(band(err, tol))
@@ -297,9 +303,11 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
   if (section.gaze === null) {
     slips.push({ code: 'gaze-missing' })
     marks.push({ criterion: 'gaze', weight: gw, score: 0, reason: 'The position of gaze is not stated.' })
-  } else if (input.gaze && section.gaze !== input.gaze) {
+  }
+  else if (input.gaze && section.gaze !== input.gaze) {
     marks.push({ criterion: 'gaze', weight: gw, score: 0, reason: `Recorded ${GAZE_LABEL[section.gaze].toLowerCase()}, but the measurement was in ${gazeName}.` })
-  } else {
+  }
+  else {
     marks.push({ criterion: 'gaze', weight: gw, score: 1, reason: `Position of gaze: ${GAZE_LABEL[section.gaze].toLowerCase()}.` })
   }
 
@@ -335,7 +343,8 @@ function gradeEyes(
       push('direction', v.direction, `Total: ${v.directionReason.replace(/^RE: /, '')}`)
       push('amount', v.amount, `Total: ${v.amountReason.replace(/^RE: /, '')}`)
       slips.push(...v.slips.map(({ eye: _e, ...s }) => s))
-    } else {
+    }
+    else {
       push('direction', 0, 'No finding could be placed against an eye.')
       push('amount', 0, 'No finding could be placed against an eye.')
       if (!section.total) slips.push({ code: 'amount-missing' })
@@ -350,13 +359,13 @@ function gradeEyes(
   const direct = EYES.reduce((a, e) => a + misfit(rec[e], t[e]), 0)
   const swapped = EYES.reduce((a, e) => a + misfit(rec[otherEye(e)], t[e]), 0)
   const reversed = EYES.reduce((a, e) => a + misfit(rec[e], t[e], true), 0)
-  const eyeWrong =
-    EYES.some(significant) &&
-    swapped + 0.5 < direct &&
-    swapped + 0.5 < reversed &&
-    EYES.every((e) => !significant(e) || misfit(rec[otherEye(e)], t[e]) <= tol)
+  const eyeWrong
+    = EYES.some(significant)
+      && swapped + 0.5 < direct
+      && swapped + 0.5 < reversed
+      && EYES.every(e => !significant(e) || misfit(rec[otherEye(e)], t[e]) <= tol)
 
-  const graded = EYES.filter((e) => significant(e) || rec[e] !== undefined)
+  const graded = EYES.filter(e => significant(e) || rec[e] !== undefined)
   const amounts: number[] = []
   const directions: number[] = []
   const eyeScores: number[] = []
@@ -383,7 +392,7 @@ function gradeEyes(
     }
     if (!eyeWrong) eyeScores.push(1)
     const refs = eyeWrong ? [{ kind: 'finding' as const, t: t[e] }] : references(input, e)
-    let best: { v: EyeVerdict; ref: Reference } | null = null
+    let best: { v: EyeVerdict, ref: Reference } | null = null
     for (const ref of refs) {
       const v = judge(r, ref.t, e, tol)
       if (!best || v.amount + v.direction > best.v.amount + best.v.direction) best = { v, ref }

@@ -4,11 +4,11 @@
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 
 const GAZE_WORDS: Record<Gaze, string> = {
-  primary: 'primary position',
-  up: 'upgaze',
-  down: 'downgaze',
-  right: 'right gaze',
-  left: 'left gaze',
+  'primary': 'primary position',
+  'up': 'upgaze',
+  'down': 'downgaze',
+  'right': 'right gaze',
+  'left': 'left gaze',
   'up-right': 'up and right',
   'up-left': 'up and left',
   'down-right': 'down and right',

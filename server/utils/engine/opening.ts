@@ -22,23 +22,23 @@ export function tiltAwareness(torsion: number): number {
 }
 
 const DOUBLE = [
-  "I've been seeing double — one picture sits above the other.",
+  'I\'ve been seeing double — one picture sits above the other.',
   'Things look doubled, with the second image higher than the first.',
   'I get double vision, one image on top of the other.',
 ]
-const READING = ["It's worst when I look down to read.", 'Reading and going down stairs are the hardest.']
+const READING = ['It\'s worst when I look down to read.', 'Reading and going down stairs are the hardest.']
 const TILT = ['The second picture looks tilted, too.', 'Things look slanted, like a picture hanging crooked.']
 const QUIET = [
-  "I'm here for a check-up; I haven't noticed anything wrong with my eyes.",
+  'I\'m here for a check-up; I haven\'t noticed anything wrong with my eyes.',
   'Nothing bothers me much — my optometrist asked for a full check.',
 ]
 const SINCE_CHILDHOOD = [
-  "One eye has turned since I was small, but I don't see double.",
-  "I've had a turn in one eye since childhood; I only ever see one of everything.",
+  'One eye has turned since I was small, but I don\'t see double.',
+  'I\'ve had a turn in one eye since childhood; I only ever see one of everything.',
 ]
 const HEAD_POSTURE = [
   'People tell me I have held my head on one side in photos for years.',
-  "My head has leant to one side for years, as far back as I can remember; the doubling is newer.",
+  'My head has leant to one side for years, as far back as I can remember; the doubling is newer.',
 ]
 const SUDDEN = ['It came on suddenly, with some dizziness.', 'I felt unsteady on my feet when the double vision began.']
 const GRITTY = ['My eyes feel gritty and look more prominent than they used to.', 'My eyes have felt sore and look a bit staring lately.']

@@ -44,10 +44,10 @@ export const horizontalAtFor = (c: Case, gaze: Gaze): PerEye<number> => ({
 const half = (v: number): number => Math.round(v * 2) / 2
 
 function coverTest(c: Case): CoverTest | undefined {
-  const verticals = [...GAZES.map((g) => c.gazes[g].vertical), c.headTilt.right, c.headTilt.left]
-  if (verticals.every((v) => Math.abs(v) < 1)) return undefined
+  const verticals = [...GAZES.map(g => c.gazes[g].vertical), c.headTilt.right, c.headTilt.left]
+  if (verticals.every(v => Math.abs(v) < 1)) return undefined
   return {
-    gaze: Object.fromEntries(GAZES.map((g) => [g, half(c.gazes[g].vertical)])) as Record<Gaze, number>,
+    gaze: Object.fromEntries(GAZES.map(g => [g, half(c.gazes[g].vertical)])) as Record<Gaze, number>,
     headTilt: { right: half(c.headTilt.right), left: half(c.headTilt.left) },
     supine: half(c.supine),
   }

@@ -37,7 +37,7 @@ export const MUSCLE_NAMES: Record<Muscle, string> = {
 }
 
 export function threeStep(a: ThreeStepAnswer): Muscle {
-  const row = THREE_STEP_TABLE.find((r) => r.higherEye === a.higherEye && r.worseGaze === a.worseGaze && r.worseTilt === a.worseTilt)
+  const row = THREE_STEP_TABLE.find(r => r.higherEye === a.higherEye && r.worseGaze === a.worseGaze && r.worseTilt === a.worseTilt)
   // the table covers all 2×2×2 answers
   return row!.muscle
 }
@@ -45,11 +45,11 @@ export function threeStep(a: ThreeStepAnswer): Muscle {
 /** Candidates left after the steps answered so far. */
 export function threeStepCandidates(a: Partial<ThreeStepAnswer>): Muscle[] {
   return THREE_STEP_TABLE.filter(
-    (r) =>
-      (a.higherEye === undefined || r.higherEye === a.higherEye) &&
-      (a.worseGaze === undefined || r.worseGaze === a.worseGaze) &&
-      (a.worseTilt === undefined || r.worseTilt === a.worseTilt),
-  ).map((r) => r.muscle)
+    r =>
+      (a.higherEye === undefined || r.higherEye === a.higherEye)
+      && (a.worseGaze === undefined || r.worseGaze === a.worseGaze)
+      && (a.worseTilt === undefined || r.worseTilt === a.worseTilt),
+  ).map(r => r.muscle)
 }
 
 /** Below this vertical deviation (Δ) in primary there is no hypertropia to analyse. */
@@ -74,7 +74,7 @@ export function threeStepFromCase(c: Case): ThreeStepAnswer | null {
 }
 
 /** Whether the three-step test is the right tool for this case, and why not. */
-export function threeStepApplies(c: Case): { applies: boolean; why: string } {
+export function threeStepApplies(c: Case): { applies: boolean, why: string } {
   switch (c.condition) {
     case 'ted-ir-restriction':
       return { applies: false, why: 'The three-step test does not apply to a restrictive problem such as thyroid eye disease with a tight inferior rectus: the deviation comes from a muscle that cannot relax, not from a weak one.' }
@@ -145,15 +145,17 @@ export function gradeInterpretation(c: Case, answer: InterpretationBody): Interp
   const given = answer.muscle
   if (given === undefined) {
     marks.push({ criterion: 'muscle', score: 0, reason: 'No muscle named.' })
-  } else if (given === correct) {
+  }
+  else if (given === correct) {
     marks.push({
       criterion: 'muscle',
       score: 1,
       reason: correct === 'not-applicable' ? 'Correct: the three-step test does not apply here.' : `Correct: ${MUSCLE_NAMES[correct]}.`,
     })
-  } else {
-    const own =
-      answer.higherEye && answer.worseGaze && answer.worseTilt
+  }
+  else {
+    const own
+      = answer.higherEye && answer.worseGaze && answer.worseTilt
         ? threeStep({ higherEye: answer.higherEye, worseGaze: answer.worseGaze, worseTilt: answer.worseTilt })
         : null
     const carried = own !== null && given === own && correct !== 'not-applicable'

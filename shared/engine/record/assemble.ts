@@ -4,7 +4,7 @@
 
 import type { Distance, Eye, Gaze, Prism } from '../types'
 import type { Sem } from './lexicon'
-import type { EyeRecord, GazeSection, NotPerformedReason, ParsedRecord, RecordProblem, TestName } from './types'
+import type { EyeRecord, GazeSection, NotPerformedReason, RecordProblem, TestName } from './types'
 
 type Tok = Sem & { text: string }
 type Owner = Eye | 'both' | 'total' | null
@@ -22,17 +22,17 @@ interface Clause {
   emptyBeforeOwner?: boolean
 }
 
-type Item = { kind: 'clause'; clause: Clause } | { kind: 'gaze'; gaze: Gaze; degrees?: number; at: number; text: string }
+type Item = { kind: 'clause', clause: Clause } | { kind: 'gaze', gaze: Gaze, degrees?: number, at: number, text: string }
 
 const CONTENT = new Set(['num', 'dir', 'in', 'none'])
 const isOwner = (t: Tok): boolean => t.k === 'eye' || t.k === 'total'
 const ownerOf = (t: Tok): Owner => (t.k === 'eye' ? t.v : t.k === 'total' ? 'total' : null)
-const clauseText = (c: Clause): string => c.toks.map((t) => t.text).join(' ')
+const clauseText = (c: Clause): string => c.toks.map(t => t.text).join(' ')
 
 /** Split the stream at separators and cut each chunk into clauses, one per eye (or total). */
 function clausesAndGazes(tokens: Tok[]): Item[] {
   const items: Item[] = []
-  let chunk: Array<{ t: Tok; at: number }> = []
+  let chunk: Array<{ t: Tok, at: number }> = []
   const flush = (andFollows: boolean) => {
     const relevant = chunk.filter(({ t }) => isOwner(t) || CONTENT.has(t.k) || t.k === 'each')
     for (const { t, at } of chunk) {
@@ -43,8 +43,9 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
       const rel = relevant.filter(({ t }) => t.k !== 'each')
       const owners = rel.map((x, idx) => ({ ...x, idx })).filter(({ t }) => isOwner(t))
       if (owners.length === 0) {
-        items.push({ kind: 'clause', clause: { owner: null, toks: rel.map((x) => x.t), at: rel[0]?.at ?? 0, andFollows, eyeLast: false, each } })
-      } else {
+        items.push({ kind: 'clause', clause: { owner: null, toks: rel.map(x => x.t), at: rel[0]?.at ?? 0, andFollows, eyeLast: false, each } })
+      }
+      else {
         const eyeFirst = owners[0]!.idx === 0
         owners.forEach((o, k) => {
           const from = eyeFirst ? o.idx + 1 : k === 0 ? 0 : owners[k - 1]!.idx + 1
@@ -53,7 +54,7 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
             kind: 'clause',
             clause: {
               owner: ownerOf(o.t),
-              toks: rel.slice(from, to).map((x) => x.t),
+              toks: rel.slice(from, to).map(x => x.t),
               at: o.at,
               andFollows: andFollows && k === owners.length - 1,
               eyeLast: !eyeFirst,
@@ -65,7 +66,7 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
         if (!eyeFirst) {
           const rest = rel.slice(owners[owners.length - 1]!.idx + 1)
           if (rest.length > 0) {
-            items.push({ kind: 'clause', clause: { owner: null, toks: rest.map((x) => x.t), at: rest[0]!.at, andFollows, eyeLast: false, each } })
+            items.push({ kind: 'clause', clause: { owner: null, toks: rest.map(x => x.t), at: rest[0]!.at, andFollows, eyeLast: false, each } })
           }
         }
       }
@@ -85,14 +86,14 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
 function readClause(c: Clause, problems: RecordProblem[], eye?: Eye): EyeRecord | null {
   const text = clauseText(c)
   const nums = c.toks.filter((t): t is Tok & { k: 'num' } => t.k === 'num')
-  const dirs = new Set(c.toks.filter((t): t is Tok & { k: 'dir' } => t.k === 'dir').map((t) => t.v))
-  const nones = c.toks.some((t) => t.k === 'none')
+  const dirs = new Set(c.toks.filter((t): t is Tok & { k: 'dir' } => t.k === 'dir').map(t => t.v))
+  const nones = c.toks.some(t => t.k === 'none')
   const ins = c.toks.filter((t): t is Tok & { k: 'in' } => t.k === 'in')
   if (nums.length === 0 && dirs.size === 0 && !nones && ins.length === 0) return null
 
   for (const t of ins) {
     const i = c.toks.indexOf(t)
-    const afterAmount = c.toks.slice(0, i).some((x) => x.k === 'num')
+    const afterAmount = c.toks.slice(0, i).some(x => x.k === 'num')
     if (dirs.size > 0) continue // "8° excyclo in" — the word is not needed
     if (t.beforeEye && c.eyeLast) continue // "8° ex in RE"
     if (afterAmount && !t.beforeEye) {
@@ -103,11 +104,12 @@ function readClause(c: Clause, problems: RecordProblem[], eye?: Eye): EyeRecord 
     return { amount: nums.length === 1 ? Math.abs(nums[0]!.v) : null, direction: null }
   }
 
-  const amounts = [...new Set(nums.map((n) => Math.abs(n.v)))]
+  const amounts = [...new Set(nums.map(n => Math.abs(n.v)))]
   let amount: number | null = null
   if (amounts.length > 1) {
     problems.push({ code: 'two-amounts', eye, text, message: `"${text}" gives more than one amount.` })
-  } else if (amounts.length === 1) {
+  }
+  else if (amounts.length === 1) {
     amount = amounts[0]!
   }
   if (nones && amount !== null && amount !== 0) {
@@ -120,7 +122,7 @@ function readClause(c: Clause, problems: RecordProblem[], eye?: Eye): EyeRecord 
   }
   if (nones || amount === 0) return { amount: 0, direction: 'none' }
   const dir = dirs.size === 1 ? [...dirs][0]! : null
-  if (dir === null && nums.some((n) => n.signed)) {
+  if (dir === null && nums.some(n => n.signed)) {
     problems.push({
       code: 'signed-amount',
       eye,
@@ -146,7 +148,8 @@ function putEye(s: SectionBuilder, eye: Eye, rec: EyeRecord, problems: RecordPro
   if (prev && (prev.amount !== null || prev.direction !== null) && !same(prev, rec)) {
     problems.push({ code: 'eye-twice', eye, text, message: `The ${eye === 'RE' ? 'right' : 'left'} eye is given two different findings.` })
     s.eyes[eye] = { amount: null, direction: null }
-  } else {
+  }
+  else {
     s.eyes[eye] = rec
   }
   s.hasFindings = true
@@ -176,35 +179,38 @@ function globals(tokens: Tok[], problems: RecordProblem[]): Globals {
     else if (t.k === 'prism') {
       if (t.eye && t.base) prisms.push({ eye: t.eye, power: t.power, base: t.base })
       else notes.push(t.text)
-    } else if (t.k === 'note') notes.push(t.text)
+    }
+    else if (t.k === 'note') notes.push(t.text)
     else if (t.k === 'unread') unread.push(t.text)
     else if (t.k === 'notdone') notDone = true
     else if (t.k === 'reason') reasons.add(t.v)
   }
   // a generic "Maddox rod" is compatible with either specific test
-  const specific = [...tests].filter((x) => x !== 'maddox-rod')
+  const specific = [...tests].filter(x => x !== 'maddox-rod')
   let test: TestName | null = null
   if (specific.length > 1) {
     problems.push({ code: 'two-tests', message: 'The record names both the double and the single Maddox rod test.' })
-  } else {
+  }
+  else {
     test = specific[0] ?? (tests.has('maddox-rod') ? 'maddox-rod' : null)
   }
   let distance: Distance | null = null
   if (distances.size > 1) {
     problems.push({ code: 'two-distances', message: 'The record names both near and distance fixation.' })
-  } else {
+  }
+  else {
     distance = [...distances][0] ?? null
   }
   const notPerformed = notDone || reasons.size > 0 ? { reasons: reasons.size > 0 ? [...reasons] : (['unstated'] as NotPerformedReason[]) } : null
   return { test, distance, prisms, notes, unread, notPerformed }
 }
 
-export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Globals; problems: RecordProblem[] } {
+export function assemble(tokens: Tok[]): { sections: GazeSection[], globals: Globals, problems: RecordProblem[] } {
   const problems: RecordProblem[] = []
   const g = globals(tokens, problems)
   const items = clausesAndGazes(tokens)
-  const firstGaze = items.findIndex((x) => x.kind === 'gaze')
-  const firstFinding = items.findIndex((x) => x.kind === 'clause')
+  const firstGaze = items.findIndex(x => x.kind === 'gaze')
+  const firstFinding = items.findIndex(x => x.kind === 'clause')
   const gazeFirst = firstGaze !== -1 && (firstFinding === -1 || firstGaze < firstFinding)
 
   const sections: SectionBuilder[] = [newSection()]
@@ -230,9 +236,11 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
           sections.push(current)
         }
         setGaze(item)
-      } else if (closed && !current.hasFindings) {
+      }
+      else if (closed && !current.hasFindings) {
         setGaze(item)
-      } else {
+      }
+      else {
         if (closed) {
           current = newSection()
           sections.push(current)
@@ -246,7 +254,7 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
     if (!gazeFirst && closed && c.owner !== null) {
       // findings after a closing position of gaze start the next section —
       // unless no further position of gaze follows, then they belong to the last one
-      const moreGazes = items.slice(items.indexOf(item)).some((x) => x.kind === 'gaze')
+      const moreGazes = items.slice(items.indexOf(item)).some(x => x.kind === 'gaze')
       if (moreGazes) {
         current = newSection()
         sections.push(current)
@@ -272,7 +280,8 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
       putEye(current, c.owner, rec, problems, text)
       for (const p of pending) putEye(current, p, rec, problems, text)
       pending = []
-    } else if (c.owner === 'both') {
+    }
+    else if (c.owner === 'both') {
       if (rec === null) {
         if (c.andFollows) pending.push('RE', 'LE')
         continue
@@ -280,24 +289,28 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
       if (rec.direction === 'none' || c.each) {
         putEye(current, 'RE', rec, problems, text)
         putEye(current, 'LE', rec, problems, text)
-      } else {
+      }
+      else {
         problems.push({
           code: 'both-eyes-amount',
           text,
           message: `"both eyes ${text}": is that each eye or the total? Write each eye, or "total".`,
         })
       }
-    } else if (c.owner === 'total') {
+    }
+    else if (c.owner === 'total') {
       if (rec === null) continue
       if (current.total && !same(current.total, rec)) {
         problems.push({ code: 'unclear-total', text, message: 'Two different totals are given.' })
         current.total = { amount: null, direction: null }
-      } else {
+      }
+      else {
         current.total = rec
       }
       current.hasFindings = true
       current.lastOwner = 'total'
-    } else if (rec !== null) {
+    }
+    else if (rec !== null) {
       attachOwnerless(current, rec, problems, clauseText(c))
     }
   }
@@ -307,8 +320,8 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[]; globals: Glo
 
   const out: GazeSection[] = sections
     .filter((s, i) => i === 0 || s.hasFindings || s.gaze !== null)
-    .map((s) => finishSection(s, problems))
-  if (g.notPerformed && out.some((s) => hasAmounts(s))) {
+    .map(s => finishSection(s, problems))
+  if (g.notPerformed && out.some(s => hasAmounts(s))) {
     problems.push({
       code: 'not-performed-with-findings',
       message: 'The record says the test was not performed but also gives torsion findings.',
@@ -342,14 +355,15 @@ function attachOwnerless(s: SectionBuilder, rec: EyeRecord, problems: RecordProb
 }
 
 function hasAmounts(s: GazeSection): boolean {
-  return [s.eyes.RE, s.eyes.LE, s.total].some((r) => r && r.amount !== null && r.amount > 0)
+  return [s.eyes.RE, s.eyes.LE, s.total].some(r => r && r.amount !== null && r.amount > 0)
 }
 
 function finishSection(s: SectionBuilder, problems: RecordProblem[]): GazeSection {
   if (s.noneForBoth) {
     if (s.eyes.RE || s.eyes.LE || s.total) {
       problems.push({ code: 'amount-without-eye', text: 'nil', message: '"No torsion" is written without an eye beside other findings.' })
-    } else {
+    }
+    else {
       s.eyes.RE = { amount: 0, direction: 'none' }
       s.eyes.LE = { amount: 0, direction: 'none' }
     }

@@ -10,11 +10,11 @@ const TEST_LABEL: Record<TestName, string> = {
 }
 
 export const GAZE_LABEL: Record<Gaze, string> = {
-  primary: 'Primary',
-  up: 'Upgaze',
-  down: 'Downgaze',
-  right: 'Right gaze',
-  left: 'Left gaze',
+  'primary': 'Primary',
+  'up': 'Upgaze',
+  'down': 'Downgaze',
+  'right': 'Right gaze',
+  'left': 'Left gaze',
   'up-right': 'Up and right',
   'up-left': 'Up and left',
   'down-right': 'Down and right',
@@ -22,10 +22,10 @@ export const GAZE_LABEL: Record<Gaze, string> = {
 }
 
 const REASON_LABEL: Record<NotPerformedReason, string> = {
-  suppression: 'suppression',
+  'suppression': 'suppression',
   'one-streak': 'sees one streak only',
   'abnormal-correspondence': 'abnormal retinal correspondence',
-  unstated: 'reason not stated',
+  'unstated': 'reason not stated',
 }
 
 const fmtNumber = (n: number): string => (Number.isInteger(n) ? String(n) : n.toFixed(1))
@@ -59,11 +59,11 @@ export function readAsLine(r: ParsedRecord): string {
     r.distance === 'near' ? 'Near' : r.distance === 'distance' ? 'Distance' : 'Fixation distance: not stated',
   ]
   if (r.notPerformed) {
-    return [...head, `Not performed: ${r.notPerformed.reasons.map((x) => REASON_LABEL[x]).join(', ')}`].join(' · ')
+    return [...head, `Not performed: ${r.notPerformed.reasons.map(x => REASON_LABEL[x]).join(', ')}`].join(' · ')
   }
   if (r.sections.length === 1) {
     const s = r.sections[0]!
     return [...head, gazeLabel(s), ...sectionParts(s)].join(' · ')
   }
-  return [...head, ...r.sections.map((s) => `${gazeLabel(s)}: ${sectionParts(s).join(', ')}`)].join(' · ')
+  return [...head, ...r.sections.map(s => `${gazeLabel(s)}: ${sectionParts(s).join(', ')}`)].join(' · ')
 }

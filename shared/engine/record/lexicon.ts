@@ -6,24 +6,24 @@ import type { Direction, Distance, Eye, Gaze, PrismBase } from '../types'
 import type { NotPerformedReason, TestName } from './types'
 import type { RawToken } from './raw'
 
-export type Sem =
-  | { k: 'sep'; and: boolean }
-  | { k: 'colon' }
-  | { k: 'test'; v: TestName }
-  | { k: 'dist'; v: Distance }
-  | { k: 'gaze'; v: Gaze; degrees?: number }
-  | { k: 'eye'; v: Eye | 'both' }
-  | { k: 'num'; v: number; signed: boolean }
-  | { k: 'dir'; v: Direction }
-  | { k: 'in'; beforeEye: boolean }
-  | { k: 'none' }
-  | { k: 'total' }
-  | { k: 'each' }
-  | { k: 'prism'; power: number; base: PrismBase | null; eye: Eye | null }
-  | { k: 'note'; text: string }
-  | { k: 'notdone' }
-  | { k: 'reason'; v: NotPerformedReason }
-  | { k: 'unread'; text: string }
+export type Sem
+  = | { k: 'sep', and: boolean }
+    | { k: 'colon' }
+    | { k: 'test', v: TestName }
+    | { k: 'dist', v: Distance }
+    | { k: 'gaze', v: Gaze, degrees?: number }
+    | { k: 'eye', v: Eye | 'both' }
+    | { k: 'num', v: number, signed: boolean }
+    | { k: 'dir', v: Direction }
+    | { k: 'in', beforeEye: boolean }
+    | { k: 'none' }
+    | { k: 'total' }
+    | { k: 'each' }
+    | { k: 'prism', power: number, base: PrismBase | null, eye: Eye | null }
+    | { k: 'note', text: string }
+    | { k: 'notdone' }
+    | { k: 'reason', v: NotPerformedReason }
+    | { k: 'unread', text: string }
 
 export interface Hit {
   sem: Sem | null
@@ -37,7 +37,7 @@ const w = (t: RawToken[], i: number): string => t[i]?.text ?? ''
 const hit = (t: RawToken[], i: number, len: number, sem: Sem | null): Hit => ({
   sem,
   len,
-  text: t.slice(i, i + len).map((x) => x.text).join(' '),
+  text: t.slice(i, i + len).map(x => x.text).join(' '),
 })
 
 /** Match a phrase of words (each slot a set of alternatives) from position i. */
@@ -96,7 +96,7 @@ export const FILLERS = new Set([
   'slightly', 'mild', 'mildly', 'small', 'marked', 'markedly', 'which', 'that', 'this', 'result', 'obtained',
   'gives', 'given', 'equals', 'only', 'lines', 'line', 'streak', 'streaks', 'sees', 'saw', 'see',
   'perform', 'performed', 'attempt', 'attempted', 'possible', 'as', 'because', 'due', 'since', 'reason',
-  '°', ':', '=', '~', '≈', '(', ')', '[', ']', '"', "'", '?', '!', '*', '#', '@', '>', '<',
+  '°', ':', '=', '~', '≈', '(', ')', '[', ']', '"', '\'', '?', '!', '*', '#', '@', '>', '<',
 ])
 
 // ---- recognisers -----------------------------------------------------------
@@ -117,7 +117,7 @@ const separator: Rec = (t, i) => {
 const NOT_DONE: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, true]> = [
   [['not', ['performed', 'done', 'tested', 'possible', 'attempted', 'measured', 'measurable', 'valid', 'appropriate', 'completed']], true],
   [['not', 'carried', 'out'], true],
-  [[['unable', 'cannot', "can't", 'couldnt', "couldn't"]], true],
+  [[['unable', 'cannot', 'can\'t', 'couldnt', 'couldn\'t']], true],
   [['could', 'not'], true],
   [['did', 'not'], true],
   [[['abandoned', 'stopped', 'untestable', 'invalid', 'notapplicable', 'unreliable', 'omitted', 'declined']], true],
@@ -143,7 +143,7 @@ const REASONS: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>
   [['only', 'sees', ['one', '1', 'a', 'single']], 'one-streak'],
   [['no', 'simultaneous', 'perception'], 'suppression'],
   [['cannot', 'see', 'both'], 'one-streak'],
-  [["can't", 'see', 'both'], 'one-streak'],
+  [['can\'t', 'see', 'both'], 'one-streak'],
 ]
 
 const reason: Rec = (t, i) => {
@@ -214,7 +214,7 @@ const prism: Rec = (t, i) => {
     eye = e[1]
     j += skip + e[0]
   }
-  if (!base) return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map((x) => x.text).join(' ') })
+  if (!base) return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map(x => x.text).join(' ') })
   return hit(t, i, j - i, { k: 'prism', power: n, base: base[1], eye })
 }
 
@@ -233,7 +233,7 @@ const deviationNote: Rec = (t, i) => {
     j++
     if (PRISM_UNITS.includes(w(t, j))) j++
   }
-  return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map((x) => x.text).join(' ') })
+  return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map(x => x.text).join(' ') })
 }
 
 const SIDE = ['right', 'left', 'r', 'l', 'rt', 'lt']
@@ -258,7 +258,7 @@ const NOTES: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, 
 
 const note: Rec = (t, i) => {
   const m = longest(t, i, NOTES)
-  return m ? hit(t, i, m[0], { k: 'note', text: t.slice(i, i + m[0]).map((x) => x.text).join(' ') }) : null
+  return m ? hit(t, i, m[0], { k: 'note', text: t.slice(i, i + m[0]).map(x => x.text).join(' ') }) : null
 }
 
 const METRE = ['m', 'metre', 'metres', 'meter', 'meters']
@@ -311,7 +311,7 @@ function combine(v: 'up' | 'down' | null, h: 'right' | 'left' | null): Gaze | nu
 }
 
 /** A position of gaze phrase from position i, e.g. "down and right", "right gaze", "looking up". */
-function gazePhrase(t: RawToken[], i: number): { len: number; gaze: Gaze } | null {
+function gazePhrase(t: RawToken[], i: number): { len: number, gaze: Gaze } | null {
   const p = longest(t, i, PRIMARY)
   if (p) return { len: p[0], gaze: 'primary' }
   let v: 'up' | 'down' | null = null
@@ -329,12 +329,14 @@ function gazePhrase(t: RawToken[], i: number): { len: number; gaze: Gaze } | nul
       h = hh
       indicated = true
       end = j + 1
-    } else if (UP.includes(x) || DOWN.includes(x)) {
+    }
+    else if (UP.includes(x) || DOWN.includes(x)) {
       if (v) break
       v = UP.includes(x) ? 'up' : 'down'
       indicated = true
       end = j + 1
-    } else if (RIGHT.includes(x) || LEFT.includes(x)) {
+    }
+    else if (RIGHT.includes(x) || LEFT.includes(x)) {
       if (h) break
       // "R"/"L" mean a side of gaze only right before "gaze"; a side word just before
       // an eye word, an amount or a direction word is an eye ("downgaze right 8° ex")
@@ -344,19 +346,23 @@ function gazePhrase(t: RawToken[], i: number): { len: number; gaze: Gaze } | nul
       if (x === 'dextroversion' || x === 'laevoversion' || x === 'levoversion') indicated = true
       h = RIGHT.includes(x) ? 'right' : 'left'
       end = j + 1
-    } else if (INDICATORS.includes(x)) {
+    }
+    else if (INDICATORS.includes(x)) {
       indicated = true
       if (v || h) end = j + 1
-    } else if ((x === 'and' || x === '&' || x === 'to') && (v || h || indicated)) {
+    }
+    else if ((x === 'and' || x === '&' || x === 'to') && (v || h || indicated)) {
       // joins "up and right", "up to the right", "gaze to the left"
       if (next === 'the') j++
       if (![...UP, ...DOWN, ...RIGHT, ...LEFT].includes(w(t, j + 1))) break
       if (x === 'to') indicated = true
-    } else if (x === 'to' && next === 'the' && [...RIGHT, ...LEFT].includes(w(t, j + 2))) {
+    }
+    else if (x === 'to' && next === 'the' && [...RIGHT, ...LEFT].includes(w(t, j + 2))) {
       // "to the right" on its own
       indicated = true
       j++
-    } else {
+    }
+    else {
       break
     }
   }

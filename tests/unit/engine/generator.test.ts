@@ -7,7 +7,7 @@ import type { Gaze } from '#shared/engine/types'
 import { GAZES } from '#shared/engine/types'
 
 const SEEDS = Array.from({ length: 120 }, (_, i) => `seed-${i}`)
-const casesOf = (id: string, seeds = SEEDS): Case[] => seeds.map((s) => generateCase(id, s))
+const casesOf = (id: string, seeds = SEEDS): Case[] => seeds.map(s => generateCase(id, s))
 const primary = (c: Case) => c.gazes.primary.reported
 const objective = (c: Case) => c.gazes.primary.torsion
 const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length
@@ -15,13 +15,13 @@ const affected = (c: Case) => c.affectedEye!
 
 describe('case templates', () => {
   it('cover every condition of domain.md §4 at two difficulties, with sources', () => {
-    const families = new Set(CASE_TEMPLATES.map((t) => t.family))
+    const families = new Set(CASE_TEMPLATES.map(t => t.family))
     for (const f of ['normal', 'so-palsy', 'bilateral-so-palsy', 'io-palsy', 'sr-palsy', 'ir-palsy', 'ted-ir-restriction', 'skew-deviation', 'long-standing-so-palsy', 'suppression']) {
       expect(families.has(f as never)).toBe(true)
-      const diffs = new Set(CASE_TEMPLATES.filter((t) => t.family === f).map((t) => t.difficulty))
+      const diffs = new Set(CASE_TEMPLATES.filter(t => t.family === f).map(t => t.difficulty))
       expect([...diffs].sort()).toEqual(['challenging', 'standard'])
     }
-    expect(new Set(CASE_TEMPLATES.map((t) => t.id)).size).toBe(CASE_TEMPLATES.length)
+    expect(new Set(CASE_TEMPLATES.map(t => t.id)).size).toBe(CASE_TEMPLATES.length)
     for (const t of CASE_TEMPLATES) expect(t.sources.length).toBeGreaterThan(0)
   })
 
@@ -33,7 +33,7 @@ describe('case templates', () => {
 })
 
 describe('determinism', () => {
-  test.prop([fc.constantFrom(...CASE_TEMPLATES.map((t) => t.id)), fc.string({ minLength: 1, maxLength: 30 })])(
+  test.prop([fc.constantFrom(...CASE_TEMPLATES.map(t => t.id)), fc.string({ minLength: 1, maxLength: 30 })])(
     'the same template, seed and version give the same case',
     (id, seed) => {
       expect(generateCase(id, seed, GENERATOR_VERSION)).toEqual(generateCase(id, seed, GENERATOR_VERSION))
@@ -55,7 +55,7 @@ describe('determinism', () => {
   it('pins version 1: if this changes, bump GENERATOR_VERSION instead', () => {
     // A fingerprint of version 1's output. Stored cases are replayed from seed + version,
     // so the same seed must give the same patient forever (domain.md §4).
-    const text = JSON.stringify(CASE_TEMPLATES.map((t) => generateCase(t, 'pin')))
+    const text = JSON.stringify(CASE_TEMPLATES.map(t => generateCase(t, 'pin')))
     expect(GENERATOR_VERSION === 1 ? specKey(text) : 'bumped').toBe(GENERATOR_VERSION === 1 ? PIN_V1 : 'bumped')
   })
 })
@@ -69,7 +69,7 @@ describe('published ranges', () => {
       const cs = casesOf(id)
       for (const c of cs) for (const g of GAZES) for (const e of ['RE', 'LE'] as const) expect(Math.abs(c.gazes[g].reported[e])).toBeLessThanOrEqual(2) // domain.md §4
       // Flodin et al., Acta Ophthalmol 2020;98:177-81: mean about 1° excyclo (reference range 0.7–1.5°)
-      const m = mean(cs.flatMap((c) => [primary(c).RE, primary(c).LE]))
+      const m = mean(cs.flatMap(c => [primary(c).RE, primary(c).LE]))
       expect(m).toBeGreaterThanOrEqual(0.7)
       expect(m).toBeLessThanOrEqual(1.5)
     }
@@ -91,8 +91,8 @@ describe('published ranges', () => {
       }
     }
     // means 5–7° in published series: 5.18° (Lee 2013), 6.7° (Almog 2014) — standard cases
-    expect(mean(casesOf('so-palsy-right-standard').map((c) => primary(c).RE))).toBeGreaterThanOrEqual(5)
-    expect(mean(casesOf('so-palsy-right-standard').map((c) => primary(c).RE))).toBeLessThanOrEqual(7)
+    expect(mean(casesOf('so-palsy-right-standard').map(c => primary(c).RE))).toBeGreaterThanOrEqual(5)
+    expect(mean(casesOf('so-palsy-right-standard').map(c => primary(c).RE))).toBeLessThanOrEqual(7)
   })
 
   it('bilateral SO palsy: total excyclo over 10°, within 16.0 ± 5.5° when standard, larger in downgaze', () => {
@@ -217,7 +217,7 @@ describe('published ranges', () => {
 
   it('seeded sides come out both ways', () => {
     for (const id of ['ted-ir-restriction-standard', 'skew-deviation-standard', 'long-standing-so-palsy-standard', 'suppression-standard']) {
-      const sides = new Set(casesOf(id, SEEDS.slice(0, 40)).map((c) => c.fixingEye))
+      const sides = new Set(casesOf(id, SEEDS.slice(0, 40)).map(c => c.fixingEye))
       expect(sides.size).toBe(2)
     }
   })
@@ -225,13 +225,13 @@ describe('published ranges', () => {
 
 // Positions of gaze mirrored left ↔ right, written out here independently of the engine.
 const MIRROR: Record<Gaze, Gaze> = {
-  primary: 'primary', up: 'up', down: 'down', right: 'left', left: 'right',
+  'primary': 'primary', 'up': 'up', 'down': 'down', 'right': 'left', 'left': 'right',
   'up-right': 'up-left', 'up-left': 'up-right', 'down-right': 'down-left', 'down-left': 'down-right',
 }
 
 describe('left ↔ right mirror symmetry of patients', () => {
-  const pairs = ['so-palsy', 'io-palsy', 'sr-palsy', 'ir-palsy'].flatMap((f) =>
-    ['standard', 'challenging'].map((d) => [`${f}-right-${d}`, `${f}-left-${d}`] as const),
+  const pairs = ['so-palsy', 'io-palsy', 'sr-palsy', 'ir-palsy'].flatMap(f =>
+    ['standard', 'challenging'].map(d => [`${f}-right-${d}`, `${f}-left-${d}`] as const),
   )
   test.prop([fc.constantFrom(...pairs), fc.string({ minLength: 1, maxLength: 20 })])(
     'a left-sided case is the mirror image of the right-sided case with the same seed',
@@ -295,7 +295,7 @@ describe('hand-authored cases', () => {
     const r = caseFromSpec(bad)
     expect(r.ok).toBe(false)
     if (r.ok) return
-    expect(r.issues.map((i) => i.path)).toContain(path)
+    expect(r.issues.map(i => i.path)).toContain(path)
     for (const i of r.issues) expect(i.message.length).toBeGreaterThan(5)
   })
 })

@@ -11,14 +11,14 @@ import { findRuleSwap } from '#shared/engine/slips'
 import { DISTANCES, GAZES } from '#shared/engine/types'
 import type { Eye } from '#shared/engine/types'
 
-const TESTABLE = CASE_TEMPLATES.filter((t) => t.family !== 'suppression').map((t) => t.id)
+const TESTABLE = CASE_TEMPLATES.filter(t => t.family !== 'suppression').map(t => t.id)
 const arbTemplate = fc.constantFrom(...TESTABLE)
 const arbSeed = fc.string({ minLength: 1, maxLength: 12 })
 const arbGaze = fc.constantFrom(...GAZES)
 const arbDistance = fc.constantFrom(...DISTANCES)
 const arbTolerance = fc.double({ min: 0.5, max: 5, noNaN: true })
-const slipCodes = (r: { slips: { code: string }[] }) => r.slips.map((s) => s.code)
-const markOf = (r: { marks: { criterion: string; score: number }[] }, c: string) => r.marks.find((m) => m.criterion === c)?.score
+const slipCodes = (r: { slips: { code: string }[] }) => r.slips.map(s => s.code)
+const markOf = (r: { marks: { criterion: string, score: number }[] }, c: string) => r.marks.find(m => m.criterion === c)?.score
 
 describe('properties', () => {
   test.prop([arbTemplate, arbSeed, arbGaze, arbDistance, arbTolerance])(
@@ -48,13 +48,13 @@ describe('properties', () => {
   test.prop([arbTemplate, arbSeed, arbGaze])('reversing only the direction yields only direction-reversed', (id, seed, gaze) => {
     const c = generateCase(id, seed)
     const t = c.gazes[gaze].reported
-    const torted = (['RE', 'LE'] as Eye[]).filter((e) => Math.abs(t[e]) > 2)
+    const torted = (['RE', 'LE'] as Eye[]).filter(e => Math.abs(t[e]) > 2)
     fc.pre(torted.length > 0)
     const good = modelRecord({ torsion: t, gaze, distance: 'near' })
-    const reversed = good.replace(/excyclotorsion|incyclotorsion/g, (w) => (w === 'excyclotorsion' ? 'incyclotorsion' : 'excyclotorsion'))
+    const reversed = good.replace(/excyclotorsion|incyclotorsion/g, w => (w === 'excyclotorsion' ? 'incyclotorsion' : 'excyclotorsion'))
     const r = gradeAttempt(c, { gaze, distance: 'near', readings: levelReadings(c, gaze, []), record: reversed }, { mode: 'learner-turns' })
     expect(new Set(slipCodes(r))).toEqual(new Set(['direction-reversed']))
-    expect(r.slips.map((s) => s.eye).sort()).toEqual(torted.sort())
+    expect(r.slips.map(s => s.eye).sort()).toEqual(torted.sort())
     for (const m of r.marks) if (m.criterion !== 'direction') expect(m.score).toBe(1)
     expect(markOf(r, 'direction')).toBeLessThan(1)
   })
@@ -67,7 +67,7 @@ describe('properties', () => {
     const record = `DMR, near, ${gaze === 'primary' ? 'primary position' : gaze.replace('-', ' and ') + (gaze.includes('-') ? '' : ' gaze')}: ${eyeText('RE')}, ${eyeText('LE')}.`
     const r = gradeAttempt(c, { gaze, distance: 'near', readings, record }, { mode: 'learner-turns' })
     expect(new Set(slipCodes(r))).toEqual(new Set(['dial-value-as-amount']))
-    expect(r.slips.map((s) => s.eye).sort()).toEqual(['LE', 'RE'])
+    expect(r.slips.map(s => s.eye).sort()).toEqual(['LE', 'RE'])
   })
 
   test.prop([fc.constantFrom('so-palsy', 'io-palsy', 'sr-palsy', 'ir-palsy'), arbSeed, arbGaze])(
@@ -75,13 +75,13 @@ describe('properties', () => {
     (family, seed, gaze) => {
       const right = generateCase(`${family}-right`, seed)
       const left = generateCase(`${family}-left`, seed)
-      const mirrorGaze = gaze.replace(/right|left/, (s) => (s === 'right' ? 'left' : 'right')) as typeof gaze
+      const mirrorGaze = gaze.replace(/right|left/, s => (s === 'right' ? 'left' : 'right')) as typeof gaze
       const record = (c: typeof right, g: typeof gaze) => {
         const t = c.gazes[g].reported
         // a deliberately imperfect record: right eye doubled, left eye reversed
         return modelRecord({ torsion: { RE: t.RE * 2, LE: -t.LE }, gaze: g, distance: 'near' })
       }
-      const swapEyes = (s: string) => s.replace(/\b(RE|LE)\b/g, (e) => (e === 'RE' ? 'LE' : 'RE'))
+      const swapEyes = (s: string) => s.replace(/\b(RE|LE)\b/g, e => (e === 'RE' ? 'LE' : 'RE'))
       const rr = gradeAttempt(right, { gaze, distance: 'near', readings: levelReadings(right, gaze, []), record: record(right, gaze) }, { mode: 'learner-turns' })
       const lr = gradeAttempt(
         left,
@@ -89,8 +89,8 @@ describe('properties', () => {
         { mode: 'learner-turns' },
       )
       expect(lr.score).toBeCloseTo(rr.score, 10)
-      expect(lr.slips.map((s) => `${s.code}:${s.eye === 'RE' ? 'LE' : s.eye === 'LE' ? 'RE' : '-'}`).sort()).toEqual(
-        rr.slips.map((s) => `${s.code}:${s.eye ?? '-'}`).sort(),
+      expect(lr.slips.map(s => `${s.code}:${s.eye === 'RE' ? 'LE' : s.eye === 'LE' ? 'RE' : '-'}`).sort()).toEqual(
+        rr.slips.map(s => `${s.code}:${s.eye ?? '-'}`).sort(),
       )
     },
   )
@@ -115,7 +115,7 @@ describe('error carried forward', () => {
     const carried = gradeRecord({ record: 'DMR N primary: RE 5° incyclo, LE no torsion', expected: finding, gaze: 'primary', distance: 'near', readings })
     expect(wrong.score).toBeLessThan(carried.score)
     expect(slipCodes(wrong)).toContain('not-parallel')
-    expect(slipCodes(wrong).some((c) => c === 'amount-off' || c === 'direction-reversed')).toBe(true)
+    expect(slipCodes(wrong).some(c => c === 'amount-off' || c === 'direction-reversed')).toBe(true)
   })
 
   it('the left-eye rule applied to the right eye reverses the direction', () => {
@@ -240,7 +240,7 @@ describe('record checker', () => {
   it('grades a record against a known finding without a case', () => {
     const r = gradeKnownFinding({ torsion: { RE: 8, LE: 0 }, gaze: 'primary', record: 'DMR N primary: RE 8° ex, LE nil' })
     expect(r.score).toBe(1)
-    expect(r.marks.map((m) => m.criterion)).not.toContain('distance')
+    expect(r.marks.map(m => m.criterion)).not.toContain('distance')
     expect(r.readAs).toContain('RE 8° excyclo')
   })
 

@@ -128,7 +128,7 @@ const AMBIGUOUS: Row[] = [
 
 function check(row: Row) {
   const r = parseRecord(row.text)
-  const eyeOf = (e: EyeExp | undefined, got: { amount: number | null; direction: RecordedDirection | null } | undefined) => {
+  const eyeOf = (e: EyeExp | undefined, got: { amount: number | null, direction: RecordedDirection | null } | undefined) => {
     if (e === undefined) return
     if (e === 'absent') expect(got).toBeUndefined()
     else expect(got && [got.amount, got.direction]).toEqual([...e])
@@ -143,15 +143,15 @@ function check(row: Row) {
   if (row.sections !== undefined) expect(r.sections).toHaveLength(row.sections)
   if (row.prisms !== undefined) expect(r.prisms).toHaveLength(row.prisms)
   if (row.notPerformed !== undefined) expect(r.notPerformed !== null).toBe(row.notPerformed)
-  if (row.problems !== undefined) expect(r.problems.map((p) => p.code)).toEqual(row.problems)
+  if (row.problems !== undefined) expect(r.problems.map(p => p.code)).toEqual(row.problems)
   return r
 }
 
 describe('record parser — readable records', () => {
   it('has at least 60 differently written records across both tables', () => {
-    expect(new Set([...READABLE, ...AMBIGUOUS].map((r) => r.text)).size).toBeGreaterThanOrEqual(60)
+    expect(new Set([...READABLE, ...AMBIGUOUS].map(r => r.text)).size).toBeGreaterThanOrEqual(60)
   })
-  it.each(READABLE.map((r) => [r.text, r] as const))('%s', (_t, row) => {
+  it.each(READABLE.map(r => [r.text, r] as const))('%s', (_t, row) => {
     const r = check(row)
     // a readable record leaves no problem behind unless the row says so
     if (row.problems === undefined) expect(r.problems).toEqual([])
@@ -159,7 +159,7 @@ describe('record parser — readable records', () => {
 })
 
 describe('record parser — unreadable or ambiguous records are reported, not guessed', () => {
-  it.each(AMBIGUOUS.map((r) => [r.text, r] as const))('%s', (_t, row) => {
+  it.each(AMBIGUOUS.map(r => [r.text, r] as const))('%s', (_t, row) => {
     const r = check(row)
     expect(r.problems.length).toBeGreaterThan(0)
     for (const p of r.problems) expect(p.message.length).toBeGreaterThan(10)
@@ -169,7 +169,7 @@ describe('record parser — unreadable or ambiguous records are reported, not gu
 describe('record parser — details', () => {
   it('keeps the second position of gaze as its own section', () => {
     const r = parseRecord('DMR N cc, primary: RE 6° excyclo, LE 0°; 20° downgaze: RE 9° ex, LE 0')
-    expect(r.sections.map((s) => s.gaze)).toEqual(['primary', 'down'])
+    expect(r.sections.map(s => s.gaze)).toEqual(['primary', 'down'])
     expect(r.sections[1]!.gazeDegrees).toBe(20)
     expect(r.sections[1]!.eyes.RE).toEqual({ amount: 9, direction: 'excyclo' })
   })

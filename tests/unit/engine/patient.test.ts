@@ -21,7 +21,7 @@ const setting = (over: Partial<BenchSetting> = {}): BenchSetting => ({
 })
 
 describe('the bench and the server see the same patient', () => {
-  test.prop([fc.constantFrom(...CASE_TEMPLATES.map((t) => t.id)), fc.string({ minLength: 1, maxLength: 8 }), fc.constantFrom(...GAZES), fc.integer({ min: 60, max: 120 }), fc.integer({ min: 60, max: 120 })])(
+  test.prop([fc.constantFrom(...CASE_TEMPLATES.map(t => t.id)), fc.string({ minLength: 1, maxLength: 8 }), fc.constantFrom(...GAZES), fc.integer({ min: 60, max: 120 }), fc.integer({ min: 60, max: 120 })])(
     'words from the presentation equal words from the case (learner turns)',
     (id, seed, gaze, re, le) => {
       const c = generateCase(id, seed)
@@ -52,22 +52,22 @@ describe('what the patient says', () => {
 
   it('says it cannot see a line pushed out of the field, and a prism brings it back', () => {
     const c = generateCase('long-standing-so-palsy-challenging', 'big')
-    const g = GAZES.find((x) => Math.abs(c.gazes[x].vertical) > 22)!
+    const g = GAZES.find(x => Math.abs(c.gazes[x].vertical) > 22)!
     expect(g).toBeDefined()
     const hidden = patientSays(c, setting({ gaze: g }))
-    expect(hidden.observations.some((o) => o.kind === 'out-of-view')).toBe(true)
+    expect(hidden.observations.some(o => o.kind === 'out-of-view')).toBe(true)
     expect(hidden.text).toMatch(/can't see the (red|white) line/)
     const v = c.gazes[g].vertical
     const prism = { eye: 'RE' as const, power: Math.round(Math.abs(v) - 8), base: v > 0 ? ('down' as const) : ('up' as const) }
     const back = patientSays(c, setting({ gaze: g, prisms: [prism] }))
-    expect(back.observations.some((o) => o.kind === 'out-of-view')).toBe(false)
+    expect(back.observations.some(o => o.kind === 'out-of-view')).toBe(false)
   })
 
   it('says the lines are on top of each other with no vertical separation', () => {
     const c = generateCase('normal-standard', 'n')
     expect(patientSays(c, setting()).observations).toContainEqual(expect.objectContaining({ kind: 'overlap' }))
     const separated = patientSays(c, setting({ prisms: [{ eye: 'RE', power: 6, base: 'down' }] }))
-    expect(separated.observations.some((o) => o.kind === 'overlap')).toBe(false)
+    expect(separated.observations.some(o => o.kind === 'overlap')).toBe(false)
   })
 
   it('a suppressing patient sees one line only', () => {
@@ -94,7 +94,7 @@ describe('what the patient says', () => {
     const coarse = generateCase('normal-challenging', 'c')
     const words = (c: typeof fine) =>
       Array.from({ length: 30 }, (_, i) => patientSays(c, setting({ readings: { RE: 80 + i, LE: 100 - i }, prisms: [{ eye: 'RE', power: 6, base: 'down' }] })).text)
-    const precise = (ts: string[]) => ts.filter((t) => /towards my (nose|ear)/.test(t)).length
+    const precise = (ts: string[]) => ts.filter(t => /towards my (nose|ear)/.test(t)).length
     expect(precise(words(coarse))).toBeLessThan(precise(words(fine)))
   })
 
@@ -141,7 +141,7 @@ describe('patient turns the rods', () => {
   it('repeat settings spread like published test–retest data', () => {
     // Liebermann et al., J AAPOS 2018;22:146: 95% limits of agreement ±4.7° between sessions
     const diffs: number[] = []
-    for (const t of CASE_TEMPLATES.filter((x) => x.family !== 'suppression')) {
+    for (const t of CASE_TEMPLATES.filter(x => x.family !== 'suppression')) {
       for (let s = 0; s < 40; s++) {
         const c = generateCase(t, `rt-${s}`)
         const a = patientSetsRods(c, { gaze: 'primary', distance: 'near', prisms: [{ eye: 'RE', power: 6, base: 'down' }], trial: 1 })
@@ -166,7 +166,7 @@ describe('patient turns the rods', () => {
     const c = generateCase('so-palsy-right', 'dir')
     const xs = Array.from({ length: 20 }, (_, i) => patientSetsRods(c, { gaze: 'down', distance: 'near', trial: i + 1 }).readings.RE)
     // RE excyclo → reading above 90 (common practice, derived from ISO 8429:1986)
-    expect(xs.filter((x) => x > 90).length).toBeGreaterThan(15)
+    expect(xs.filter(x => x > 90).length).toBeGreaterThan(15)
   })
 })
 

@@ -11,9 +11,9 @@ const SIDE_OR_LEVEL = new Set(['right', 'left', 'standard', 'challenging'])
 
 /** Words that would give the condition away: the template id's own words, whole. */
 function conditionWords(templateId: string): RegExp[] {
-  const words = templateId.split('-').filter((w) => !SIDE_OR_LEVEL.has(w))
+  const words = templateId.split('-').filter(w => !SIDE_OR_LEVEL.has(w))
   return [
-    ...words.map((w) => new RegExp(`\\b${w}\\b`, 'i')),
+    ...words.map(w => new RegExp(`\\b${w}\\b`, 'i')),
     new RegExp(templateId.replace(/-(standard|challenging)$/, ''), 'i'),
     /long[- ]standing/i,
     /palsy|paresis|oblique|rectus|thyroid|skew|suppress|restrict|bilateral|normal/i,

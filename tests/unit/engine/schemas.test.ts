@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { attemptSubmitSchema, practiceCreateSchema, recordCheckSchema } from '#shared/engine/schemas'
 
-const messages = (r: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } }) =>
-  (r.error?.issues ?? []).map((i) => `${i.path.join('.')}: ${i.message}`)
+const messages = (r: { success: boolean, error?: { issues: { path: PropertyKey[], message: string }[] } }) =>
+  (r.error?.issues ?? []).map(i => `${i.path.join('.')}: ${i.message}`)
 
 describe('practice create', () => {
   it('accepts an empty body and the three optional fields', () => {

@@ -30,7 +30,7 @@ function observed(c: Case): [Eye, Side, Side] {
 const seeds = Array.from({ length: 60 }, (_, i) => `ts-${i}`)
 
 describe('three-step table against generated cases', () => {
-  it.each(TABLE.map((r) => [r[3], r] as const))('%s palsy: generated vertical pattern gives its row', (_m, [eye, gaze, tilt, muscle, base]) => {
+  it.each(TABLE.map(r => [r[3], r] as const))('%s palsy: generated vertical pattern gives its row', (_m, [eye, gaze, tilt, muscle, base]) => {
     for (const difficulty of ['standard', 'challenging']) {
       for (const seed of seeds) {
         const c = generateCase(`${base}-${difficulty}`, seed)
@@ -47,7 +47,7 @@ describe('three-step table against generated cases', () => {
     for (const difficulty of ['standard', 'challenging']) {
       for (const seed of seeds) {
         const c = generateCase(`long-standing-so-palsy-${difficulty}`, seed)
-        const row = TABLE.find((r) => r[3] === (c.affectedEye === 'RE' ? 'RSO' : 'LSO'))!
+        const row = TABLE.find(r => r[3] === (c.affectedEye === 'RE' ? 'RSO' : 'LSO'))!
         expect(observed(c)).toEqual([row[0], row[1], row[2]])
       }
     }
@@ -73,18 +73,18 @@ describe('grading the interpretation', () => {
   it('marks a wrong step and gives half for a muscle that follows from it', () => {
     const c = generateCase('so-palsy-right', 'interp')
     const r = gradeInterpretation(c, { higherEye: 'RE', worseGaze: 'left', worseTilt: 'left', muscle: 'LSR' })
-    const byCrit = Object.fromEntries(r.marks.map((m) => [m.criterion, m.score]))
-    expect(byCrit).toEqual({ 'higher-eye': 1, 'worse-gaze': 1, 'worse-tilt': 0, muscle: 0.5 })
+    const byCrit = Object.fromEntries(r.marks.map(m => [m.criterion, m.score]))
+    expect(byCrit).toEqual({ 'higher-eye': 1, 'worse-gaze': 1, 'worse-tilt': 0, 'muscle': 0.5 })
   })
 
   it.each(['ted-ir-restriction-standard', 'skew-deviation-standard'])('%s: the three-step test does not apply, and it says so', (id) => {
     const c = generateCase(id, 'na')
     const wrong = gradeInterpretation(c, { muscle: 'RSO' })
     expect(wrong.answer).toBe('not-applicable')
-    expect(wrong.marks.find((m) => m.criterion === 'muscle')!.score).toBe(0)
+    expect(wrong.marks.find(m => m.criterion === 'muscle')!.score).toBe(0)
     expect(wrong.explanation.join(' ')).toMatch(/does not apply/)
     const right = gradeInterpretation(c, { muscle: 'not-applicable' })
-    expect(right.marks.find((m) => m.criterion === 'muscle')!.score).toBe(1)
+    expect(right.marks.find(m => m.criterion === 'muscle')!.score).toBe(1)
   })
 
   it('bilateral SO palsy: not a single muscle', () => {
