@@ -24,7 +24,7 @@ interface Clause {
 
 type Item = { kind: 'clause', clause: Clause } | { kind: 'gaze', gaze: Gaze, degrees?: number, at: number, text: string }
 
-const CONTENT = new Set(['num', 'dir', 'in', 'none'])
+const CONTENT = new Set(['num', 'range', 'dir', 'in', 'none'])
 const isOwner = (t: Tok): boolean => t.k === 'eye' || t.k === 'total'
 const ownerOf = (t: Tok): Owner => (t.k === 'eye' ? t.v : t.k === 'total' ? 'total' : null)
 const clauseText = (c: Clause): string => c.toks.map(t => t.text).join(' ')
@@ -79,7 +79,30 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
   })
   flush(false)
   items.sort((a, b) => (a.kind === 'clause' ? a.clause.at : a.at) - (b.kind === 'clause' ? b.clause.at : b.at))
-  return items
+  return joinHeadings(items)
+}
+
+/** "RE: 8° ex", "total: 12 ex" — an eye (or total) on its own, then its finding after the colon. */
+function joinHeadings(items: Item[]): Item[] {
+  const out: Item[] = []
+  for (const item of items) {
+    const prev = out[out.length - 1]
+    if (
+      item.kind === 'clause'
+      && item.clause.owner === null
+      && prev?.kind === 'clause'
+      && prev.clause.owner !== null
+      && prev.clause.toks.length === 0
+      && !prev.clause.emptyBeforeOwner
+    ) {
+      prev.clause.toks = item.clause.toks
+      prev.clause.andFollows = item.clause.andFollows
+      prev.clause.each ||= item.clause.each
+      continue
+    }
+    out.push(item)
+  }
+  return out
 }
 
 /** Read one clause's amount and direction, or report why it cannot be read. */
@@ -89,7 +112,12 @@ function readClause(c: Clause, problems: RecordProblem[], eye?: Eye): EyeRecord 
   const dirs = new Set(c.toks.filter((t): t is Tok & { k: 'dir' } => t.k === 'dir').map(t => t.v))
   const nones = c.toks.some(t => t.k === 'none')
   const ins = c.toks.filter((t): t is Tok & { k: 'in' } => t.k === 'in')
-  if (nums.length === 0 && dirs.size === 0 && !nones && ins.length === 0) return null
+  const ranges = c.toks.filter(t => t.k === 'range')
+  if (nums.length === 0 && dirs.size === 0 && !nones && ins.length === 0 && ranges.length === 0) return null
+  if (ranges.length > 0) {
+    problems.push({ code: 'two-amounts', eye, text, message: `"${text}" gives a range: write the one amount you measured (or the mean of your readings).` })
+    return { amount: null, direction: dirs.size === 1 ? [...dirs][0]! : null }
+  }
 
   for (const t of ins) {
     const i = c.toks.indexOf(t)

@@ -14,6 +14,7 @@ export type Sem
     | { k: 'gaze', v: Gaze, degrees?: number }
     | { k: 'eye', v: Eye | 'both' }
     | { k: 'num', v: number, signed: boolean }
+    | { k: 'range', from: number, to: number }
     | { k: 'dir', v: Direction }
     | { k: 'in', beforeEye: boolean }
     | { k: 'none' }
@@ -96,6 +97,7 @@ export const FILLERS = new Set([
   'slightly', 'mild', 'mildly', 'small', 'marked', 'markedly', 'which', 'that', 'this', 'result', 'obtained',
   'gives', 'given', 'equals', 'only', 'lines', 'line', 'streak', 'streaks', 'sees', 'saw', 'see',
   'perform', 'performed', 'attempt', 'attempted', 'possible', 'as', 'because', 'due', 'since', 'reason',
+  'pos', 'either',
   '°', ':', '=', '~', '≈', '(', ')', '[', ']', '"', '\'', '?', '!', '*', '#', '@', '>', '<',
 ])
 
@@ -105,7 +107,8 @@ const separator: Rec = (t, i) => {
   const x = w(t, i)
   if ([',', ';', '.', '/', '|', '·', '•', '&', '(', ')', '[', ']'].includes(x)) return hit(t, i, 1, { k: 'sep', and: x === '&' })
   if (x === 'and' || x === 'plus') return hit(t, i, 1, { k: 'sep', and: true })
-  if (x === ':') return hit(t, i, 1, { k: 'colon' })
+  // a colon ends a heading ("1/3 m: RE…"); after an eye ("RE: 8 ex") the assembler joins the two again
+  if (x === ':') return hit(t, i, 1, { k: 'sep', and: false })
   if ((x === '-' || x === '+') && t[i + 1]?.type !== 'num') return hit(t, i, 1, { k: 'sep', and: x === '+' })
   // a sign after a number or a closing bracket is a separator, not a sign
   if ((x === '-' || x === '+') && i > 0 && (t[i - 1]!.type === 'num' || w(t, i - 1) === ')' || w(t, i - 1) === '°')) {
@@ -261,6 +264,19 @@ const note: Rec = (t, i) => {
   return m ? hit(t, i, m[0], { k: 'note', text: t.slice(i, i + m[0]).map(x => x.text).join(' ') }) : null
 }
 
+/** "dial 98°", "reading 98", "rod at 98°" — the dial figure beside a finding is noted, not read as an amount. */
+const dialNote: Rec = (t, i) => {
+  let j = i
+  if (['dial', 'reading', 'readings', 'scale', 'read'].includes(w(t, j))) j++
+  else if (['rod', 'axis'].includes(w(t, j)) && ['at', '='].includes(w(t, j + 1))) j += 2
+  else return null
+  if (['at', 'of', '=', 'was', ':'].includes(w(t, j))) j++
+  if (t[j]?.type !== 'num') return null
+  j++
+  if (DEGREE_UNITS.includes(w(t, j))) j++
+  return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map(x => x.text).join(' ') })
+}
+
 const METRE = ['m', 'metre', 'metres', 'meter', 'meters']
 
 const distance: Rec = (t, i) => {
@@ -302,7 +318,7 @@ const DIRECTION_LIKE = (x: string): boolean =>
 const PRIMARY: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, true]> = [
   [['primary'], true], [['primary', ['position', 'gaze']], true], [['pp'], true], [['prim'], true],
   [['straight', 'ahead'], true], [['looking', 'straight', 'ahead'], true], [['ahead'], true],
-  [['pos', '1'], true], [['central', 'gaze'], true],
+  [['pos', '1'], true], [['central', 'gaze'], true], [[['prim', 'primary'], 'pos'], true],
 ]
 
 function combine(v: 'up' | 'down' | null, h: 'right' | 'left' | null): Gaze | null {
@@ -436,6 +452,13 @@ const number: Rec = (t, i) => {
   if (n === null) return null
   j++
   if (DEGREE_UNITS.includes(w(t, j))) j++
+  // "7-8°", "7 to 8 degrees": a range stays a range, never two findings
+  if ((w(t, j) === '-' || w(t, j) === 'to') && t[j + 1]?.type === 'num') {
+    const m = numberAt(t, j + 1)!
+    let k = j + 2
+    if (DEGREE_UNITS.includes(w(t, k))) k++
+    return hit(t, i, k - i, { k: 'range', from: sign < 0 ? -n : n, to: m })
+  }
   return hit(t, i, j - i, { k: 'num', v: sign < 0 ? -n : n, signed: sign !== 0 })
 }
 
@@ -473,6 +496,7 @@ const RECOGNISERS: Rec[] = [
   test,
   prism,
   deviationNote,
+  dialNote,
   note,
   distance,
   gaze,

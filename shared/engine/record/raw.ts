@@ -11,7 +11,7 @@ const DOTTED_ABBREVIATIONS = /\b(r\.\s?e|l\.\s?e|b\.\s?e|o\.\s?d|o\.\s?s|o\.\s?u
 export function normaliseRecordText(text: string): string {
   return (
     text
-      .replace(/[º˚ᵒ]/g, '°')
+      .replace(/[º˚ᵒ⁰]/g, '°')
       .replace(/⅓/g, '1/3')
       .replace(/⁄/g, '/')
       .replace(/[’‘`]/g, '\'')

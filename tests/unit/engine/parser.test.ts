@@ -97,6 +97,14 @@ const READABLE: Row[] = [
   { text: 'DMR, 33cm, primary: RE 8°ex, LE 0°', distance: 'near', RE: [8, EX], LE: NONE },
   { text: 'DMR N primary: RE 8°, excyclo; LE no torsion', RE: [8, EX], LE: NONE },
   { text: 'DMR N primary\nRE 8 ex\nLE nil', RE: [8, EX], LE: NONE, gaze: 'primary' },
+  { text: 'OD: 8 ex; OS: 0; total: 8 ex', RE: [8, EX], LE: NONE, total: [8, EX] },
+  { text: 'DMR N PP: RE 8⁰ ex, LE 0⁰', RE: [8, EX], LE: NONE, gaze: 'primary' },
+  { text: 'DMR (near, primary): right eye extorted by 8°; left eye not torted', RE: [8, EX], LE: NONE },
+  { text: 'Double Maddox Rod, near (33cm), primary position - R: 8 deg excyclotorsion, L: no cyclotorsion', RE: [8, EX], LE: NONE, distance: 'near', gaze: 'primary' },
+  { text: 'DMR N prim. pos.: RE 8 exc, LE 0', RE: [8, EX], LE: NONE, gaze: 'primary' },
+  { text: 'DMR near primary: the right eye shows 8° of excyclotorsion and the left eye shows none', RE: [8, EX], LE: NONE },
+  { text: 'DMR N primary: RE 8° ex (dial 98°), LE nil (reading 90)', RE: [8, EX], LE: NONE },
+  { text: 'DMR: no cyclotorsion either eye', RE: NONE, LE: NONE },
   { text: 'DMR not performed: sees one streak only — suppression', notPerformed: true, test: 'double-maddox-rod' },
   { text: 'DMR not done - pt suppresses LE', notPerformed: true },
   { text: 'Unable to perform DMR: only one line seen', notPerformed: true },
@@ -123,6 +131,8 @@ const AMBIGUOUS: Row[] = [
   { text: 'DMR N primary downgaze RE 8 ex', problems: ['two-gazes'], gaze: null },
   { text: 'DMR N primary: RE 8 ex. DMR not performed.', problems: ['not-performed-with-findings'] },
   { text: '', problems: ['nothing-recorded'] },
+  { text: 'DMR N primary: RE 7-8° ex, LE 0', problems: ['two-amounts'], RE: [null, EX], LE: NONE },
+  { text: 'DMR, N, 1°: RE 8 ex', problems: ['amount-without-eye'], RE: [8, EX] },
   { text: 'DMR N primary: total 12 ex, total 8 ex', problems: ['unclear-total'], total: [null, null] },
 ]
 
