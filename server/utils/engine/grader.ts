@@ -40,7 +40,7 @@ export interface GradeOptions {
 
 export interface GradeMark {
   criterion: GradeCriterion
-  /** 0, 0.5 (partial credit) or 1 — or a mean of those over the two eyes. */
+  /** 0, 0.5 (partial credit) or 1; for per-eye criteria, the worse eye's score. */
   score: number
   weight: number
   reason: string
@@ -82,7 +82,8 @@ const deg = (v: number): string => `${Math.round(Math.abs(v) * 10) / 10}°`
 const dirWord = (t: number): string => (t > 0 ? 'excyclo' : t < 0 ? 'incyclo' : 'no torsion')
 const finding = (t: number): string => (Math.abs(t) < 0.05 ? 'no torsion' : `${deg(t)} ${dirWord(t)}`)
 const band = (err: number, tol: number): number => (err <= tol ? 1 : err <= 2 * tol ? 0.5 : 0)
-const mean = (xs: number[]): number => (xs.length === 0 ? 1 : xs.reduce((a, b) => a + b, 0) / xs.length)
+// a per-eye criterion is only as good as the worse eye: a wrong right eye is not halved by a correct left eye
+const worst = (xs: number[]): number => (xs.length === 0 ? 1 : Math.min(...xs))
 
 /** The section of a record that concerns the graded position of gaze. */
 function sectionFor(p: ParsedRecord, gaze?: Gaze): GazeSection {
@@ -173,6 +174,12 @@ function references(input: RecordGradeInput, eye: Eye): Reference[] {
   const set = input.patientSettings?.[eye]
   if (set !== undefined) refs.push({ kind: 'patient-setting', t: readingToTorsion(eye, set) })
   return refs
+}
+
+/** Say which reading rule a reversed direction matches, so the slip-patterns page can spot a swapped rule. */
+function ruleHint(eye: Eye, reading: number): string {
+  const other = otherEye(eye)
+  return `with ${deg(reading)} on the ${eyeName(eye)} dial, this is the ${eyeName(other)}'s rule (${other === 'RE' ? 'reading − 90' : '90 − reading'}) or the tilt of the image`
 }
 
 function weightOf(opts: GradeOptions | undefined, c: GradeCriterion): number {
@@ -292,7 +299,7 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
         if (err > tol) slips.push({ code: 'not-parallel', eye, detail: `set ${deg(r)}, level at ${deg(at)}` })
       }
     }
-    marks.push({ criterion: 'measurement', weight: weightOf(o, 'measurement'), score: mean(scores), reason: reasons.join(' ') })
+    marks.push({ criterion: 'measurement', weight: weightOf(o, 'measurement'), score: worst(scores), reason: reasons.join(' ') })
   }
 
   gradeEyes(input, section, tol, o, marks, slips, explanation)
@@ -403,16 +410,17 @@ function gradeEyes(
     const carried = ref.kind === 'own-reading' && Math.abs(ref.t - t[e]) > tol
     aReasons.push(v.amountReason + (carried ? ' (follows from your own reading: error carried forward)' : ''))
     dReasons.push(v.directionReason + (carried ? ' (follows from your own reading)' : ''))
-    slips.push(...v.slips)
+    const own = input.readings?.[e]
+    slips.push(...v.slips.map(sl => (sl.code === 'direction-reversed' && own !== undefined ? { ...sl, detail: ruleHint(e, own) } : sl)))
     if (carried) {
       explanation.push(
         `${e}: your record converts your own reading correctly, so only the measurement mark is lost (error carried forward).`,
       )
     }
   }
-  push('direction', mean(directions), dReasons.join(' '))
-  push('amount', mean(amounts), aReasons.join(' '))
-  push('eye', eyeWrong ? 0 : mean(eyeScores), eReasons.length ? eReasons.join(' ') : 'Torsion attributed to the right eye(s).')
+  push('direction', worst(directions), dReasons.join(' '))
+  push('amount', worst(amounts), aReasons.join(' '))
+  push('eye', eyeWrong ? 0 : worst(eyeScores), eReasons.length ? eReasons.join(' ') : 'Torsion attributed to the correct eye(s).')
 
   if (section.total && section.total.amount !== null && section.total.direction && section.total.direction !== 'none') {
     const sum = EYES.reduce((a, e) => {

@@ -149,11 +149,11 @@ describe('slips per field', () => {
   })
 
   it('amount outside tolerance, with partial credit inside twice it', () => {
-    // each criterion is the mean over the eyes graded: here RE (partial or none) and LE (full)
+    // a per-eye criterion takes the worse eye: here RE (partial or none), LE full
     const r = grade('DMR N primary: RE 11° ex, LE nil')
     expect(slipCodes(r)).toEqual(['amount-off'])
-    expect(markOf(r, 'amount')).toBe((0.5 + 1) / 2)
-    expect(markOf(grade('DMR N primary: RE 14° ex, LE nil'), 'amount')).toBe((0 + 1) / 2)
+    expect(markOf(r, 'amount')).toBe(0.5)
+    expect(markOf(grade('DMR N primary: RE 14° ex, LE nil'), 'amount')).toBe(0)
     expect(markOf(grade('DMR N primary: RE 11° ex, LE nil', { options: { tolerance: 3 } }), 'amount')).toBe(1)
   })
 
@@ -177,7 +177,7 @@ describe('slips per field', () => {
 
   it('"no torsion" for a torted eye loses direction and amount', () => {
     const r = grade('DMR N primary: RE no torsion, LE no torsion')
-    expect(markOf(r, 'direction')).toBe((0 + 1) / 2)
+    expect(markOf(r, 'direction')).toBe(0)
     expect(slipCodes(r)).toEqual(['amount-off'])
   })
 
@@ -232,7 +232,7 @@ describe('patient-turns measurement', () => {
     const record = modelRecord({ torsion: c.gazes.primary.reported, gaze: 'primary', distance: 'near' })
     const misread = gradeAttempt(c, { gaze: 'primary', distance: 'near', readings: { RE: set.RE + 4, LE: set.LE }, record }, { mode: 'patient-turns', trial: 3 })
     expect(slipCodes(misread)).toEqual(['not-parallel'])
-    expect(markOf(misread, 'measurement')).toBe(0.5)
+    expect(markOf(misread, 'measurement')).toBe(0)
   })
 })
 
@@ -247,7 +247,7 @@ describe('record checker', () => {
   it('uses the tutor\'s tolerance', () => {
     const tight = gradeKnownFinding({ torsion: { RE: 8, LE: 0 }, record: 'DMR N primary: RE 10 ex, LE nil', tolerance: 1 })
     const loose = gradeKnownFinding({ torsion: { RE: 8, LE: 0 }, record: 'DMR N primary: RE 10 ex, LE nil', tolerance: 3 })
-    expect(markOf(tight, 'amount')).toBe((0.5 + 1) / 2)
+    expect(markOf(tight, 'amount')).toBe(0.5)
     expect(markOf(loose, 'amount')).toBe(1)
   })
 
