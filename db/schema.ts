@@ -99,6 +99,101 @@ export interface LoginFailuresTable {
   created_at: Timestamp
 }
 
+export type CasePurpose = 'practice' | 'quiz' | 'preview'
+export type AttemptKind = 'practice' | 'quiz'
+/** 'excyclo' | 'incyclo' | 'none', or null when the record left it out. */
+export type StoredDirection = string | null
+
+/** One virtual patient: a template + seed (or a hand-authored spec) + generator version. */
+export interface CasesTable {
+  id: Generated<number>
+  owner_id: number | null
+  purpose: CasePurpose
+  template_id: string | null
+  /** 1 when the learner asked for "any": the template is not named until the truth is due. */
+  template_hidden: ColumnType<Flag, Flag | undefined, Flag>
+  spec_id: number | null
+  /** Snapshot of a hand-authored case, so replay never depends on later edits. */
+  spec_json: string | null
+  seed: string
+  generator_version: number
+  /** Server-only copy of the condition, for filters; never sent before the truth is due. */
+  condition: string
+  difficulty: string
+  mode: 'learner-turns' | 'patient-turns'
+  read_scale: ColumnType<Flag, Flag | undefined, Flag>
+  quiz_id: number | null
+  quiz_item_id: number | null
+  practice_set_id: number | null
+  /** Patient-turns: how many times the patient has been asked to turn the rods. */
+  trial_count: ColumnType<number, number | undefined, number>
+  /** Autosaved bench state (JSON) while the learner works. */
+  draft_json: string | null
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+/** A submitted attempt with everything needed to replay and review it. */
+export interface AttemptsTable {
+  id: Generated<number>
+  case_id: number
+  learner_id: number
+  /** The learner's cohort when they submitted. */
+  cohort_id: number | null
+  kind: AttemptKind
+  quiz_id: number | null
+  quiz_item_id: number | null
+  practice_set_id: number | null
+  template_id: string | null
+  condition: string
+  difficulty: string
+  mode: 'learner-turns' | 'patient-turns'
+  seed: string
+  generator_version: number
+  gaze: string
+  distance: string
+  readings_json: string
+  prisms_json: string
+  lights: ColumnType<string, string | undefined, string>
+  trial: number | null
+  record_text: string
+  parsed_json: string
+  marks_json: string
+  interpretation_json: string | null
+  /** Weighted score 0–1. */
+  score: number
+  points_earned: number
+  points_possible: number
+  slips_json: string
+  /** CaseTruth snapshot at grading time. */
+  truth_json: string
+  re_true_direction: StoredDirection
+  re_recorded_direction: StoredDirection
+  le_true_direction: StoredDirection
+  le_recorded_direction: StoredDirection
+  /** Recorded amount minus the true magnitude, degrees (null when not recorded). */
+  re_amount_error: number | null
+  le_amount_error: number | null
+  started_at: Timestamp | null
+  submitted_at: Timestamp
+  duration_ms: number | null
+}
+
+/** One row per slip on an attempt, denormalised for fast aggregation. */
+export interface AttemptSlipsTable {
+  id: Generated<number>
+  attempt_id: number
+  learner_id: number
+  cohort_id: number | null
+  kind: AttemptKind
+  quiz_id: number | null
+  template_id: string | null
+  condition: string
+  code: string
+  eye: 'RE' | 'LE' | null
+  created_at: Timestamp
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -109,6 +204,9 @@ export interface Database {
   outbox: OutboxTable
   mail_jobs: MailJobsTable
   login_failures: LoginFailuresTable
+  cases: CasesTable
+  attempts: AttemptsTable
+  attempt_slips: AttemptSlipsTable
 }
 
 export type User = Selectable<UsersTable>
@@ -119,3 +217,5 @@ export type Invitation = Selectable<InvitationsTable>
 export type AuditEntry = Selectable<AuditLogTable>
 export type OutboxMessage = Selectable<OutboxTable>
 export type MailJob = Selectable<MailJobsTable>
+export type CaseRow = Selectable<CasesTable>
+export type AttemptRow = Selectable<AttemptsTable>

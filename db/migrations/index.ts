@@ -3,9 +3,11 @@
 // in order; names must sort in the order they run.
 import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_init'
+import * as m0002 from './0002_practice'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
+  '0002_practice': m0002,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

@@ -5,7 +5,6 @@ import type { Role } from '#shared/auth/roles'
 export type Access = 'public' | 'signed-in' | Role[]
 
 export const ROUTE_ACCESS: Record<string, Access> = {
-  'GET /api/[...]': 'public',
   'GET /api/health': 'public',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'public',
