@@ -397,6 +397,8 @@ const gaze: Rec = (t, i) => {
     if (i > 0 && EYE_WORDS.has(w(t, i - 1))) return null
     let j = i + 1
     if (DEGREE_UNITS.includes(w(t, j))) j++
+    // "1° position" / "1° pos" is the clinic's shorthand for the primary position
+    if (n === 1 && j === i + 2 && ['pos', 'position', 'posn'].includes(w(t, j))) return hit(t, i, 3, { k: 'gaze', v: 'primary' })
     if (w(t, j) === 'of' || w(t, j) === 'into') j++
     const g = gazePhrase(t, j)
     if (g && g.gaze !== 'primary' && j > i + 1) return hit(t, i, j - i + g.len, { k: 'gaze', v: g.gaze, degrees: n })

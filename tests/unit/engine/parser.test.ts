@@ -99,6 +99,9 @@ const READABLE: Row[] = [
   { text: 'DMR N primary\nRE 8 ex\nLE nil', RE: [8, EX], LE: NONE, gaze: 'primary' },
   { text: 'OD: 8 ex; OS: 0; total: 8 ex', RE: [8, EX], LE: NONE, total: [8, EX] },
   { text: 'DMR N PP: RE 8⁰ ex, LE 0⁰', RE: [8, EX], LE: NONE, gaze: 'primary' },
+  // "1° position" is clinic shorthand for the primary position (common practice)
+  { text: 'DMR N 1° pos: L eye 10 degrees excyclotorted, R eye no torsion', RE: NONE, LE: [10, EX], gaze: 'primary' },
+  { text: 'DMR near 1° position RE 5 ex LE nil', RE: [5, EX], LE: NONE, gaze: 'primary' },
   { text: 'DMR (near, primary): right eye extorted by 8°; left eye not torted', RE: [8, EX], LE: NONE },
   { text: 'Double Maddox Rod, near (33cm), primary position - R: 8 deg excyclotorsion, L: no cyclotorsion', RE: [8, EX], LE: NONE, distance: 'near', gaze: 'primary' },
   { text: 'DMR N prim. pos.: RE 8 exc, LE 0', RE: [8, EX], LE: NONE, gaze: 'primary' },
