@@ -177,6 +177,10 @@ export interface AttemptsTable {
   started_at: Timestamp | null
   submitted_at: Timestamp
   duration_ms: number | null
+  /** 0006: the "read as" line, the model record and the explanation exactly as first shown. */
+  read_as: string | null
+  model_record: string | null
+  explanation_json: string | null
 }
 
 /** One row per slip on an attempt, denormalised for fast aggregation. */
@@ -194,6 +198,21 @@ export interface AttemptSlipsTable {
   created_at: Timestamp
 }
 
+/** 0006: one row per time the patient turned the rods on a patient-turns case. */
+export interface CaseTurnsTable {
+  id: Generated<number>
+  case_id: number
+  /** 1, 2, 3… per case; the same trial always replays the same setting. */
+  trial: number
+  gaze: string
+  distance: string
+  prisms_json: string
+  lights: string
+  /** PatientTurnsResult as first computed. */
+  result_json: string
+  created_at: Timestamp
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -207,6 +226,7 @@ export interface Database {
   cases: CasesTable
   attempts: AttemptsTable
   attempt_slips: AttemptSlipsTable
+  case_turns: CaseTurnsTable
 }
 
 export type User = Selectable<UsersTable>

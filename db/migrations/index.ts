@@ -4,10 +4,12 @@
 import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_init'
 import * as m0002 from './0002_practice'
+import * as m0006 from './0006_practice_extra'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
   '0002_practice': m0002,
+  '0006_practice_extra': m0006,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

@@ -24,4 +24,13 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/admin/outbox': ['admin'],
   'GET /api/admin/outbox/[id]': ['admin'],
   'GET /api/admin/audit': ['admin'],
+  'GET /api/practice/templates': 'signed-in',
+  'POST /api/practice': ['student', 'tutor', 'lecturer', 'admin'],
+  'GET /api/practice/[id]': ['student', 'tutor', 'lecturer', 'admin'],
+  'PUT /api/practice/[id]/draft': ['student', 'tutor', 'lecturer', 'admin'],
+  'POST /api/practice/[id]/turns': ['student', 'tutor', 'lecturer', 'admin'],
+  'POST /api/practice/[id]/attempts': ['student', 'tutor', 'lecturer', 'admin'],
+  'GET /api/practice/history': ['student', 'tutor', 'lecturer', 'admin'],
+  'GET /api/practice/attempts/[attemptId]': ['student', 'tutor', 'lecturer', 'admin'],
+  'POST /api/record-check': ['tutor', 'lecturer', 'admin'],
 }

@@ -1,0 +1,25 @@
+// Submit an attempt on my practice case: graded and stored by recordAttempt; in
+// practice the result, with the truth, comes back at once.
+import { caseIdParams, practiceAttemptSchema } from '#shared/schemas/practice'
+import type { AttemptResult } from '#shared/types/practice'
+
+export default defineEventHandler(async (event): Promise<AttemptResult> => {
+  const user = await requireRole(event, ...PRACTICE_ROLES)
+  const { id } = paramsAs(event, caseIdParams)
+  const { trial, ...attempt } = await readBodyAs(event, practiceAttemptSchema)
+  const db = await useDb()
+  const row = await findOwnedCase(db, id, user.id)
+  if (!row) notFound('That practice case')
+  const earlier = await db.selectFrom('attempts').select('id').where('case_id', '=', row.id).where('learner_id', '=', user.id).executeTakeFirst()
+  const recorded = await withCaseErrors(() => recordAttempt(db, {
+    caseRow: row,
+    learnerId: user.id,
+    kind: 'practice',
+    attempt,
+    trial: row.mode === 'patient-turns' ? trial : null,
+    // the case was opened for this attempt; later attempts on it have no known start
+    startedAt: earlier ? null : row.created_at,
+  }))
+  setResponseStatus(event, 201)
+  return attemptResultOf(recorded.attemptId, recorded.grade)
+})

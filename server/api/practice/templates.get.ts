@@ -1,0 +1,6 @@
+// The case templates a learner may choose from. Titles name the condition: the
+// learner asked to see the list (a case started with "any" stays unnamed).
+export default defineEventHandler(async (event) => {
+  await requireSignedIn(event)
+  return { items: practiceTemplateList() }
+})
