@@ -10,6 +10,7 @@ import {
   modeSchema,
   prismSchema,
   readingSchema,
+  recordCheckSchema,
   recordTextSchema,
   seedSchema,
   templateIdSchema,
@@ -89,3 +90,15 @@ export const practiceHistoryQuery = z.object({
 
 export const caseIdParams = z.object({ id: positiveId('The case id') })
 export const attemptIdParams = z.object({ attemptId: positiveId('The attempt id') })
+
+/**
+ * The record checker's body: the known finding (signed degrees, positive = excyclo —
+ * the page asks for amount + excyclo/incyclo per eye so nobody has to know the sign),
+ * optional gaze, distance, dial readings and tolerance, and the written record.
+ * `notTestable`: the patient could not see both streaks, so the right record says
+ * the test was not performed and why.
+ */
+export const recordCheckBodySchema = recordCheckSchema.extend({
+  notTestable: z.boolean({ error: 'notTestable must be true or false.' }).optional(),
+})
+export type RecordCheckBodyInput = z.input<typeof recordCheckBodySchema>

@@ -39,7 +39,7 @@ function clausesAndGazes(tokens: Tok[]): Item[] {
       if (t.k === 'gaze') items.push({ kind: 'gaze', gaze: t.v, degrees: t.degrees, at, text: t.text })
     }
     if (relevant.length > 0) {
-      const each = relevant.some(({ t }) => t.k === 'each')
+      const each = relevant.some(({ t }) => t.k === 'each' || (t.k === 'eye' && t.each === true))
       const rel = relevant.filter(({ t }) => t.k !== 'each')
       const owners = rel.map((x, idx) => ({ ...x, idx })).filter(({ t }) => isOwner(t))
       if (owners.length === 0) {

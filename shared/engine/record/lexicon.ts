@@ -12,7 +12,7 @@ export type Sem
     | { k: 'test', v: TestName }
     | { k: 'dist', v: Distance }
     | { k: 'gaze', v: Gaze, degrees?: number }
-    | { k: 'eye', v: Eye | 'both' }
+    | { k: 'eye', v: Eye | 'both', each?: true }
     | { k: 'num', v: number, signed: boolean }
     | { k: 'range', from: number, to: number }
     | { k: 'dir', v: Direction }
@@ -97,7 +97,7 @@ export const FILLERS = new Set([
   'slightly', 'mild', 'mildly', 'small', 'marked', 'markedly', 'which', 'that', 'this', 'result', 'obtained',
   'gives', 'given', 'equals', 'only', 'lines', 'line', 'streak', 'streaks', 'sees', 'saw', 'see',
   'perform', 'performed', 'attempt', 'attempted', 'possible', 'as', 'because', 'due', 'since', 'reason',
-  'pos', 'either',
+  'pos', 'either', 'detected', 'detectable', 'observed', 'present',
   '°', ':', '=', '~', '≈', '(', ')', '[', ']', '"', '\'', '?', '!', '*', '#', '@', '>', '<',
 ])
 
@@ -184,6 +184,7 @@ const EYE_TABLE: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | strin
   [[['be', 'ou', 'both', 'bilateral', 'bilaterally']], 'both'],
   [['both', 'eyes'], 'both'],
   [['each', 'eye'], 'both'],
+  [['either', 'eye'], 'both'],
 ]
 
 const PRISM_BASE_TABLE: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, PrismBase]> = [
@@ -425,6 +426,8 @@ const gaze: Rec = (t, i) => {
 const eye: Rec = (t, i) => {
   const m = longest(t, i, EYE_TABLE)
   if (!m) return null
+  // "each eye" / "either eye" say the finding is per eye, never a total
+  if (m[1] === 'both' && ['each', 'either'].includes(w(t, i))) return hit(t, i, m[0], { k: 'eye', v: 'both', each: true })
   return hit(t, i, m[0], { k: 'eye', v: m[1] })
 }
 
@@ -472,7 +475,7 @@ const direction: Rec = (t, i) => {
     // "in" is a preposition before a position of gaze, a distance or "the"
     const next = i + 1
     const n = w(t, next)
-    if (['the', 'a', 'an', 'each', 'both', 'this', 'that', 'primary', 'dim', 'dimmed', 'room', 'trial', 'all'].includes(n)) {
+    if (['the', 'a', 'an', 'each', 'both', 'either', 'neither', 'this', 'that', 'primary', 'dim', 'dimmed', 'room', 'trial', 'all'].includes(n)) {
       return hit(t, i, 1, null)
     }
     if (gaze(t, next) || distance(t, next)) return hit(t, i, 1, null)

@@ -108,6 +108,12 @@ const READABLE: Row[] = [
   { text: 'DMR near primary: the right eye shows 8° of excyclotorsion and the left eye shows none', RE: [8, EX], LE: NONE },
   { text: 'DMR N primary: RE 8° ex (dial 98°), LE nil (reading 90)', RE: [8, EX], LE: NONE },
   { text: 'DMR: no cyclotorsion either eye', RE: NONE, LE: NONE },
+  // "in" before either/neither is a linking word; "each eye" / "either eye" mean per eye (common practice)
+  { text: 'DMR near primary position: no torsion in either eye', RE: NONE, LE: NONE, problems: [] },
+  { text: 'DMR N PP: no torsion detected in either eye', RE: NONE, LE: NONE, problems: [] },
+  { text: 'DMR near primary: 5° excyclo each eye', RE: [5, EX], LE: [5, EX], problems: [] },
+  { text: 'DMR near primary: each eye 5° excyclo', RE: [5, EX], LE: [5, EX], problems: [] },
+  { text: 'DMR near PP: 4° incyclo in each eye', RE: [4, IN], LE: [4, IN], problems: [] },
   { text: 'DMR not performed: sees one streak only — suppression', notPerformed: true, test: 'double-maddox-rod' },
   { text: 'DMR not done - pt suppresses LE', notPerformed: true },
   { text: 'Unable to perform DMR: only one line seen', notPerformed: true },
