@@ -9,9 +9,11 @@ const NAV: Record<Role, NavItem[]> = {
   ],
   tutor: [
     { to: '/tutor', label: 'Home' },
+    { to: '/record-checker', label: 'Record checker' },
   ],
   lecturer: [
     { to: '/lecturer', label: 'Home' },
+    { to: '/record-checker', label: 'Record checker' },
   ],
   admin: [
     { to: '/admin', label: 'Overview' },
@@ -19,6 +21,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/admin/cohorts', label: 'Cohorts' },
     { to: '/admin/outbox', label: 'Outbox' },
     { to: '/admin/audit', label: 'Audit log' },
+    { to: '/record-checker', label: 'Record checker' },
   ],
 }
 
