@@ -16,7 +16,7 @@ const attempt = { gaze: 'primary', distance: 'near', readings: { RE: 95, LE: 90 
 
 beforeAll(async () => {
   owner = await signedIn(baseURL, DEMO.student)
-  other = await signedIn(baseURL, 'jory.feldane@cyclodial.test')
+  other = await signedIn(baseURL, 'freya.dunmoor@cyclodial.test')
   caseId = (await owner.post('/api/practice', { template: 'so-palsy-right', mode: 'patient-turns' })).body.id
   await owner.put(`/api/practice/${caseId}/draft`, { ...attempt, record: 'mine' })
   await owner.post(`/api/practice/${caseId}/turns`, { gaze: 'primary', distance: 'near' })
