@@ -6,6 +6,8 @@ export interface NavItem { to: string, label: string }
 const NAV: Record<Role, NavItem[]> = {
   student: [
     { to: '/student', label: 'Home' },
+    { to: '/practice', label: 'Practice' },
+    { to: '/practice/history', label: 'History' },
   ],
   tutor: [
     { to: '/tutor', label: 'Home' },
