@@ -1,0 +1,165 @@
+import { afterEach, describe, expect, it, vi } from 'vitest'
+import { nextTick } from 'vue'
+import { mountSuspended } from '@nuxt/test-utils/runtime'
+import SimBench from '~/components/sim/SimBench.vue'
+import SimPatientView from '~/components/sim/SimPatientView.vue'
+import { useBenchStore } from '~/stores/bench'
+import { gradeAttempt } from '~~/server/utils/engine/attempt'
+import { patientSetsRods } from '~~/server/utils/engine/patient'
+import { SLIP_INFO } from '#shared/engine/slips'
+import type { AttemptBody, BenchDraft, BenchResult, TurnRequest } from '#shared/bench/contract'
+import { engineCase } from '~~/tests/support/presentation'
+import { fakeLayout, nextFrame } from '~~/tests/support/benchHost'
+
+afterEach(() => {
+  vi.restoreAllMocks()
+  vi.useRealTimers()
+})
+
+let n = 0
+const benchId = () => `bench-test-${++n}`
+
+describe('SimBench in learner-turns', () => {
+  const { case: c, presentation } = engineCase('so-palsy-right', 'bench-test-case-7')
+  const level = presentation.positions.primary.horizontalAt!
+
+  it('answers live: the patient reports parallel once both rods sit where their lines look level', async () => {
+    fakeLayout(640)
+    const id = benchId()
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id } })
+    const store = useBenchStore(id)
+    const words = () => wrapper.get('[data-testid="patient-words"]').text()
+    expect(words()).not.toMatch(/parallel now/)
+    store.setRod('RE', level.RE)
+    store.setRod('LE', level.LE)
+    await nextTick()
+    expect(words()).toMatch(/both look level — parallel now/)
+    // the drawn streaks are level too
+    const view = wrapper.findComponent(SimPatientView).vm as unknown as { drawModel: { view: { streaks: { RE: { angle: number }, LE: { angle: number } } } } }
+    expect(Math.abs(view.drawModel.view.streaks.RE.angle)).toBeLessThan(0.1)
+    expect(Math.abs(view.drawModel.view.streaks.LE.angle)).toBeLessThan(0.1)
+  })
+
+  it('autosaves the draft after a pause, and submits the dial settings with the record', async () => {
+    fakeLayout(640)
+    vi.useFakeTimers()
+    const id = benchId()
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, autosaveMs: 500 } })
+    const store = useBenchStore(id)
+    store.setRod('RE', 97)
+    store.setGaze('down')
+    await nextTick()
+    expect(wrapper.emitted('change')).toBeUndefined()
+    await vi.advanceTimersByTimeAsync(600)
+    const saved = wrapper.emitted('change')!.at(-1)![0] as BenchDraft
+    expect(saved).toMatchObject({ gaze: 'down', distance: 'near', readings: { RE: 97, LE: 90 }, prisms: [], lights: 'dim' })
+    vi.useRealTimers()
+
+    const submit = wrapper.findAll('button').find(b => b.text() === 'Submit record')!
+    expect(submit.attributes('disabled')).toBeDefined()
+    await wrapper.get('#record-text').setValue('DMR, near, downgaze: RE 7° excyclotorsion, LE no torsion')
+    expect(wrapper.get('[data-testid="read-as"]').text()).toBe('Test: double Maddox rod · Near · Downgaze · RE 7° excyclo · LE no torsion')
+    expect(submit.attributes('disabled')).toBeUndefined()
+    await submit.trigger('click')
+    const body = wrapper.emitted('submit')![0]![0] as AttemptBody
+    expect(body).toMatchObject({ gaze: 'down', readings: { RE: 97, LE: 90 }, record: 'DMR, near, downgaze: RE 7° excyclotorsion, LE no torsion' })
+    expect(body.trial).toBeUndefined()
+  })
+
+  it('shows the marks and slips the engine gives, and locks the bench', async () => {
+    fakeLayout(640)
+    const id = benchId()
+    const body = { gaze: 'primary' as const, distance: 'near' as const, readings: { RE: level.RE, LE: level.LE }, prisms: [], lights: 'dim' as const, record: 'right eye 100' }
+    const graded = gradeAttempt(c, body, { mode: 'learner-turns' })
+    const result: BenchResult = { attemptId: 1, ...graded, truth: { ...graded.truth } }
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, initialDraft: body, result } })
+    const text = wrapper.get('[data-testid="feedback"]').text()
+    expect(text).toContain(`${Math.round(graded.score * 100)}%`)
+    expect(graded.slips.length).toBeGreaterThan(0)
+    for (const s of graded.slips) expect(text).toContain(SLIP_INFO[s.code].title)
+    expect(wrapper.get('[data-testid="model-record"]').text()).toBe(graded.modelRecord)
+    expect(wrapper.find('[data-testid="eye-image-sketch"]').exists()).toBe(true)
+    const store = useBenchStore(id)
+    expect(store.locked).toBe(true)
+    store.setRod('RE', 120)
+    expect(store.rods.RE).toBe(Math.round(level.RE * 10) / 10)
+  })
+
+  it('holds feedback back when asked (quiz use)', async () => {
+    fakeLayout(640)
+    const body = { gaze: 'primary' as const, distance: 'near' as const, readings: { RE: 90, LE: 90 }, prisms: [], lights: 'dim' as const, record: 'DMR' }
+    const graded = gradeAttempt(c, body, { mode: 'learner-turns' })
+    const wrapper = await mountSuspended(SimBench, {
+      props: { presentation, mode: 'learner-turns', benchId: benchId(), result: { attemptId: 2, ...graded }, showFeedback: false },
+    })
+    expect(wrapper.find('[data-testid="feedback"]').exists()).toBe(false)
+    expect(wrapper.text()).toContain('Your record has been taken')
+    expect(wrapper.text()).not.toContain(graded.modelRecord)
+  })
+
+  it('offers the interpretation step when the case has cover-test findings', async () => {
+    fakeLayout(640)
+    expect(presentation.coverTest).toBeDefined()
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    expect(wrapper.text()).toContain('Interpretation: which muscle?')
+    await wrapper.get('#interp-muscle').setValue('RSO')
+    await wrapper.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
+    await wrapper.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    const body = wrapper.emitted('submit')![0]![0] as AttemptBody
+    expect(body.interpretation).toEqual({ muscle: 'RSO' })
+  })
+
+  it('says which marking its dial uses, and carries the simulation caution', async () => {
+    fakeLayout(640)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    expect(wrapper.text()).toContain('Cyclodial\'s dial marks the rod (cylinder) axis: 90° means no torsion')
+    expect(wrapper.find('[role="note"][aria-label="Educational simulation"]').exists()).toBe(true)
+  })
+})
+
+describe('SimBench in patient-turns', () => {
+  const { case: c, presentation } = engineCase('so-palsy-right', 'bench-test-case-8', 'patient-turns')
+
+  it('holds no dial cues, asks the patient, shows where they left the rods and sends the trial with the readings', async () => {
+    expect(presentation.positions.primary.horizontalAt).toBeUndefined()
+    fakeLayout(640)
+    const id = benchId()
+    let trial = 0
+    const askPatient = vi.fn(async (req: TurnRequest) => patientSetsRods(c, { ...req, trial: ++trial }))
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', benchId: id, askPatient } })
+    const store = useBenchStore(id)
+    expect(wrapper.findAll('[role="slider"]')).toHaveLength(0)
+    expect(store.submitBlocker).toBe('Ask the patient to set the rods first.')
+
+    await wrapper.findAll('button').find(b => b.text() === 'Ask the patient to set the rods')!.trigger('click')
+    await vi.waitFor(() => expect(store.activeTurn).not.toBeNull())
+    expect(askPatient).toHaveBeenCalledWith({ gaze: 'primary', distance: 'near', prisms: [], lights: 'dim' })
+    const turn = patientSetsRods(c, { gaze: 'primary', distance: 'near', trial: 1 })
+    expect(store.rods).toEqual(turn.readings)
+    expect(wrapper.get('[data-testid="patient-words"]').text()).toContain(turn.words.text)
+    expect(wrapper.emitted('turn')![0]![0]).toEqual(turn)
+    await nextFrame()
+
+    await wrapper.get('#typed-RE').setValue('96')
+    await wrapper.get('#typed-LE').setValue('90.5')
+    await wrapper.get('#record-text').setValue('DMR near primary: RE 6 ex, LE nil')
+    await wrapper.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    const body = wrapper.emitted('submit')![0]![0] as AttemptBody
+    expect(body).toMatchObject({ readings: { RE: 96, LE: 90.5 }, trial: 1, gaze: 'primary' })
+  })
+
+  it('puts the rods back to 90° when the setting changes after a trial', async () => {
+    fakeLayout(640)
+    const id = benchId()
+    const askPatient = async (req: TurnRequest) => patientSetsRods(c, { ...req, trial: 1 })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', benchId: id, askPatient } })
+    const store = useBenchStore(id)
+    await wrapper.findAll('button').find(b => b.text() === 'Ask the patient to set the rods')!.trigger('click')
+    await vi.waitFor(() => expect(store.activeTurn).not.toBeNull())
+    store.addPrism({ eye: 'RE', power: 6, base: 'down' })
+    expect(store.activeTurn).toBeNull()
+    expect(store.rods).toEqual({ RE: 90, LE: 90 })
+    await nextTick()
+    expect(wrapper.text()).toContain('The setting changed since the last trial')
+  })
+})
