@@ -103,8 +103,22 @@ export const FILLERS = new Set([
 
 // ---- recognisers -----------------------------------------------------------
 
+/** An eye name ends straight before position i ("RE", "right eye"), and no "(" opens before it. */
+function eyeLabelBefore(t: RawToken[], i: number): boolean {
+  for (const len of [1, 2]) {
+    const from = i - len
+    if (from < 0) continue
+    const m = longest(t, from, EYE_TABLE)
+    if (m && m[0] === len && m[1] !== 'both') return w(t, from - 1) !== '('
+  }
+  return false
+}
+
 const separator: Rec = (t, i) => {
   const x = w(t, i)
+  // "RE: 8 ex LE: nil", "R) 8 ex L) nil": a colon or bracket straight after an eye labels
+  // the finding that follows it, so it must not split the eye from its finding
+  if ((x === ':' || x === ')') && eyeLabelBefore(t, i)) return hit(t, i, 1, { k: 'colon' })
   if ([',', ';', '.', '/', '|', '·', '•', '&', '(', ')', '[', ']'].includes(x)) return hit(t, i, 1, { k: 'sep', and: x === '&' })
   if (x === 'and' || x === 'plus') return hit(t, i, 1, { k: 'sep', and: true })
   // a colon ends a heading ("1/3 m: RE…"); after an eye ("RE: 8 ex") the assembler joins the two again

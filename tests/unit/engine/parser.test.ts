@@ -114,6 +114,12 @@ const READABLE: Row[] = [
   { text: 'DMR near primary: 5° excyclo each eye', RE: [5, EX], LE: [5, EX], problems: [] },
   { text: 'DMR near primary: each eye 5° excyclo', RE: [5, EX], LE: [5, EX], problems: [] },
   { text: 'DMR near PP: 4° incyclo in each eye', RE: [4, IN], LE: [4, IN], problems: [] },
+  // a colon or bracket straight after an eye labels what follows, with no comma between eyes (common practice)
+  { text: 'DMR N PP RE: 8 ex LE: nil', RE: [8, EX], LE: NONE, problems: [] },
+  { text: 'DMR N PP RE:8ex LE:nil', RE: [8, EX], LE: NONE, problems: [] },
+  { text: 'DMR near PP: R) 8 ex L) nil', RE: [8, EX], LE: NONE, problems: [] },
+  { text: 'DMR N PP right eye: 8 ex left eye: 3 in', RE: [8, EX], LE: [3, IN], problems: [] },
+  { text: 'DMR\nNear\nPrimary position\nRE: 8 ex\nLE: nil', distance: 'near', gaze: 'primary', RE: [8, EX], LE: NONE, problems: [] },
   { text: 'DMR not performed: sees one streak only — suppression', notPerformed: true, test: 'double-maddox-rod' },
   { text: 'DMR not done - pt suppresses LE', notPerformed: true },
   { text: 'Unable to perform DMR: only one line seen', notPerformed: true },
