@@ -199,6 +199,8 @@ const EYE_TABLE: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | strin
   [['both', 'eyes'], 'both'],
   [['each', 'eye'], 'both'],
   [['either', 'eye'], 'both'],
+  // "RE/LE 0" — but never "R/L", which is the notation for a right hypertropia
+  [[['re', 'od'], '/', ['le', 'os']], 'both'],
 ]
 
 const PRISM_BASE_TABLE: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, PrismBase]> = [
@@ -447,7 +449,7 @@ const eye: Rec = (t, i) => {
 
 const noTorsion: Rec = (t, i) => {
   const x = w(t, i)
-  if (['nil', 'none', 'normal', 'nad', 'zero'].includes(x)) {
+  if (['nil', 'none', 'normal', 'nad', 'zero', 'nothing'].includes(x)) {
     // "nil torsion", "zero degrees"
     let j = i + 1
     if (DEGREE_UNITS.includes(w(t, j)) || TORSION_NOUNS.includes(w(t, j))) j++
@@ -456,6 +458,14 @@ const noTorsion: Rec = (t, i) => {
   if (x === 'no' || x === 'not') {
     const n = w(t, i + 1)
     if (TORSION_NOUNS.includes(n) || EX_WORDS.has(n) || IN_WORDS.has(n) || n === 'torted') return hit(t, i, 2, { k: 'none' })
+  }
+  if (x === 'neither') {
+    // "neither eye torted", "neither eye shows torsion": no torsion in both eyes
+    let j = i + 1
+    if (['eye', 'eyes'].includes(w(t, j))) j++
+    if (['is', 'was', 'shows', 'showed', 'has', 'had'].includes(w(t, j))) j++
+    const n = w(t, j)
+    if (j > i + 1 && (TORSION_NOUNS.includes(n) || EX_WORDS.has(n) || IN_WORDS.has(n) || n === 'torted')) return hit(t, i, j - i + 1, { k: 'none' })
   }
   return null
 }

@@ -99,6 +99,14 @@ const READABLE: Row[] = [
   { text: 'DMR N primary\nRE 8 ex\nLE nil', RE: [8, EX], LE: NONE, gaze: 'primary' },
   { text: 'OD: 8 ex; OS: 0; total: 8 ex', RE: [8, EX], LE: NONE, total: [8, EX] },
   { text: 'DMR N PP: RE 8⁰ ex, LE 0⁰', RE: [8, EX], LE: NONE, gaze: 'primary' },
+  // ways tutors write "no torsion" for one or both eyes (common practice)
+  { text: 'DMR N primary: RE 6 ex, LE nothing', RE: [6, EX], LE: NONE },
+  { text: 'DMR N primary: neither eye torted', RE: NONE, LE: NONE },
+  { text: 'DMR N primary: neither eye shows torsion', RE: NONE, LE: NONE },
+  { text: 'DMR N primary: RE/LE 0', RE: NONE, LE: NONE },
+  { text: 'DMR N primary: OD/OS nil', RE: NONE, LE: NONE },
+  // "R/L" is the notation for a right hypertropia, never "both eyes" (clinical-facts §9)
+  { text: 'DMR N primary, R/L 6Δ: RE 6 ex, LE 0', RE: [6, EX], LE: NONE },
   // "1° position" is clinic shorthand for the primary position (common practice)
   { text: 'DMR N 1° pos: L eye 10 degrees excyclotorted, R eye no torsion', RE: NONE, LE: [10, EX], gaze: 'primary' },
   { text: 'DMR near 1° position RE 5 ex LE nil', RE: [5, EX], LE: NONE, gaze: 'primary' },
