@@ -213,6 +213,104 @@ export interface CaseTurnsTable {
   created_at: Timestamp
 }
 
+/** A tutor's case template: an engine template with ranges narrowed within the published ones. */
+export interface CasebookTemplatesTable {
+  id: Generated<number>
+  owner_id: number
+  title: string
+  /** The engine's template id, e.g. `so-palsy-right-standard`. */
+  template_id: string
+  /** JSON `{ torsion?: [lo, hi], vertical?: [lo, hi] }` inside the engine template's ranges. */
+  ranges_json: string
+  tolerance: number
+  notes: string | null
+  archived_at: Timestamp | null
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+/** A hand-authored exact case (caseSpecSchema JSON). */
+export interface CasebookCasesTable {
+  id: Generated<number>
+  owner_id: number
+  title: string
+  spec_json: string
+  tolerance: number
+  archived_at: Timestamp | null
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+export interface QuizzesTable {
+  id: Generated<number>
+  owner_id: number | null
+  title: string
+  /** Shown to students before they start. */
+  instructions: ColumnType<string, string | undefined, string>
+  /** Per-student cases are derived from this seed, the item and the student id. */
+  seed: string
+  time_limit_minutes: number | null
+  opens_at: Timestamp | null
+  closes_at: Timestamp | null
+  /** Submissions allowed per item; the last one counts. */
+  attempts_allowed: ColumnType<number, number | undefined, number>
+  /** 1 when each item also asks for the three-step interpretation. */
+  interpretation: ColumnType<Flag, Flag | undefined, Flag>
+  /** 1: marks and the truth wait for release; 0: they open when the quiz closes. */
+  hold_feedback: ColumnType<Flag, Flag | undefined, Flag>
+  published_at: Timestamp | null
+  released_at: Timestamp | null
+  released_by: number | null
+  archived_at: Timestamp | null
+  duplicated_from: number | null
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+/** One item of a quiz. `kind` says how `config_json` reads ('dmr' now; more kinds later). */
+export interface QuizItemsTable {
+  id: Generated<number>
+  quiz_id: number
+  position: number
+  kind: string
+  /** What the student is asked (student-facing: must not name the condition). */
+  prompt: ColumnType<string, string | undefined, string>
+  config_json: string
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+export interface QuizCohortsTable {
+  quiz_id: number
+  cohort_id: number
+  created_at: Timestamp
+}
+
+/** One student's sitting of a quiz: when it started and the deadline the server enforces. */
+export interface QuizSittingsTable {
+  id: Generated<number>
+  quiz_id: number
+  student_id: number
+  started_at: Timestamp
+  /** min(start + time limit, close time); null = no deadline. */
+  deadline_at: Timestamp | null
+  /** Set when the student finishes the quiz. */
+  finished_at: Timestamp | null
+}
+
+/** A tutor's change to one criterion's mark on an attempt, with the reason. */
+export interface QuizMarkOverridesTable {
+  id: Generated<number>
+  attempt_id: number
+  quiz_id: number
+  criterion: string
+  previous_score: number
+  score: number
+  reason: string
+  actor_id: number | null
+  created_at: Timestamp
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -227,6 +325,13 @@ export interface Database {
   attempts: AttemptsTable
   attempt_slips: AttemptSlipsTable
   case_turns: CaseTurnsTable
+  casebook_templates: CasebookTemplatesTable
+  casebook_cases: CasebookCasesTable
+  quizzes: QuizzesTable
+  quiz_items: QuizItemsTable
+  quiz_cohorts: QuizCohortsTable
+  quiz_sittings: QuizSittingsTable
+  quiz_mark_overrides: QuizMarkOverridesTable
 }
 
 export type User = Selectable<UsersTable>
@@ -239,3 +344,6 @@ export type OutboxMessage = Selectable<OutboxTable>
 export type MailJob = Selectable<MailJobsTable>
 export type CaseRow = Selectable<CasesTable>
 export type AttemptRow = Selectable<AttemptsTable>
+export type QuizRow = Selectable<QuizzesTable>
+export type QuizItemRow = Selectable<QuizItemsTable>
+export type QuizSittingRow = Selectable<QuizSittingsTable>

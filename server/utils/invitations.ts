@@ -1,4 +1,6 @@
 import type { H3Event } from 'h3'
+import type { Transaction } from 'kysely'
+import type { Database } from '~~/db/schema'
 import type { Role } from '#shared/auth/roles'
 import { ROLE_LABELS } from '#shared/auth/roles'
 
@@ -11,29 +13,42 @@ export interface InviteInput { email: string, role: Role, cohortId: number | nul
  */
 export async function createInvitation(event: H3Event, input: InviteInput): Promise<{ id: number, link: string, mailSent: boolean }> {
   const db = await useDb()
+  const { id, token } = await db.transaction().execute(trx => insertInvitation(trx, input))
+  const { link, sent } = await mailInvitation(event, input, token)
+  return { id, link, mailSent: sent }
+}
+
+/**
+ * The database half of createInvitation, for callers that create several
+ * invitations in one transaction (a roster import is all-or-nothing) and mail
+ * them with mailInvitation once it has committed.
+ */
+export async function insertInvitation(trx: Transaction<Database>, input: InviteInput): Promise<{ id: number, token: string }> {
   const { token, hash } = newToken()
   const now = nowIso()
-  const { id } = await db.transaction().execute(async (trx) => {
-    const row = await trx.insertInto('invitations').values({
-      email: input.email,
-      role: input.role,
-      cohort_id: input.cohortId,
-      token_hash: hash,
-      invited_by: input.invitedBy,
-      expires_at: addMinutes(now, INVITATION_TTL_MINUTES),
-      used_at: null,
-      created_at: now,
-    }).returning('id').executeTakeFirstOrThrow()
-    await writeAudit(trx, {
-      actorId: input.invitedBy,
-      action: 'invitation.created',
-      targetType: 'invitation',
-      targetId: row.id,
-      detail: { email: input.email, role: input.role, cohortId: input.cohortId },
-    })
-    return row
+  const row = await trx.insertInto('invitations').values({
+    email: input.email,
+    role: input.role,
+    cohort_id: input.cohortId,
+    token_hash: hash,
+    invited_by: input.invitedBy,
+    expires_at: addMinutes(now, INVITATION_TTL_MINUTES),
+    used_at: null,
+    created_at: now,
+  }).returning('id').executeTakeFirstOrThrow()
+  await writeAudit(trx, {
+    actorId: input.invitedBy,
+    action: 'invitation.created',
+    targetType: 'invitation',
+    targetId: row.id,
+    detail: { email: input.email, role: input.role, cohortId: input.cohortId },
   })
+  return { id: row.id, token }
+}
 
+/** The mail half of createInvitation: never inside a transaction. */
+export async function mailInvitation(event: H3Event, input: InviteInput, token: string): Promise<{ link: string, sent: boolean }> {
+  const db = await useDb()
   const link = `${siteOrigin(event)}/invite/${token}`
   const cohort = input.cohortId
     ? await db.selectFrom('cohorts').select('name').where('id', '=', input.cohortId).executeTakeFirst()
@@ -53,7 +68,7 @@ export async function createInvitation(event: H3Event, input: InviteInput): Prom
       'The link works once. If you were not expecting it, you can ignore this message.',
     ].join('\n'),
   })
-  return { id, link, mailSent: sent }
+  return { link, sent }
 }
 
 export function invitationGone(state: string) {

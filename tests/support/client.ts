@@ -33,6 +33,16 @@ export class Client {
     return { status: res.status, body: parsed as T, headers: res.headers }
   }
 
+  /** A multipart upload (e.g. a roster file), with this client's session. */
+  async postForm<T = any>(path: string, form: FormData): Promise<Reply<T>> {
+    const headers: Record<string, string> = { accept: 'application/json' }
+    if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
+    const res = await fetch(`${this.baseURL}${path}`, { method: 'POST', headers, body: form, redirect: 'manual' })
+    const text = await res.text()
+    const body = (res.headers.get('content-type') ?? '').includes('json') && text ? JSON.parse(text) : text
+    return { status: res.status, body: body as T, headers: res.headers }
+  }
+
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }

@@ -1,0 +1,24 @@
+import { casebookCaseBody } from '#shared/schemas/casebook'
+import { CASEBOOK_ROLES, caseOut } from '~~/server/utils/quiz/casebook'
+import { caseFromSpec } from '~~/server/utils/engine/generator'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...CASEBOOK_ROLES)
+  const body = await readBodyAs(event, casebookCaseBody)
+  // the schema already refused impossible entries; the engine builds it to be sure
+  const built = caseFromSpec(body.spec)
+  if (!built.ok) badRequest(built.issues.map(i => ({ path: `spec.${i.path}`, message: i.message })))
+  const db = await useDb()
+  const now = nowIso()
+  const row = await db.insertInto('casebook_cases').values({
+    owner_id: user.id,
+    title: body.title,
+    spec_json: JSON.stringify(body.spec),
+    tolerance: body.tolerance,
+    archived_at: null,
+    created_at: now,
+    updated_at: now,
+  }).returningAll().executeTakeFirstOrThrow()
+  setResponseStatus(event, 201)
+  return caseOut({ ...row, ownerName: user.name })
+})

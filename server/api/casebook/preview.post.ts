@@ -1,0 +1,24 @@
+import { randomBytes } from 'node:crypto'
+import { casePreviewBody } from '#shared/schemas/casebook'
+import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
+import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
+import { revealTruth } from '~~/server/utils/engine/attempt'
+import { toPresentation } from '~~/server/utils/engine/presentation'
+
+// A preview shows the presentation exactly as a student receives it, and beside it
+// (for the tutor only) the truth the grader will use.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...CASEBOOK_ROLES)
+  const body = await readBodyAs(event, casePreviewBody)
+  const db = await useDb()
+  const { snapshot, tolerance } = await snapshotSource(db, user, body.source)
+  const built = caseFromSnapshot(snapshot, body.seed ?? `preview-${randomBytes(6).toString('hex')}`)
+  return {
+    title: snapshot.title,
+    seed: built.seed,
+    mode: body.mode,
+    presentation: toPresentation(built.case, body.mode),
+    truth: revealTruth(built.case, 'primary', 'near', tolerance),
+    tolerance,
+  }
+})

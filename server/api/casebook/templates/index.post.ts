@@ -1,0 +1,25 @@
+import { casebookTemplateBody } from '#shared/schemas/casebook'
+import { CASEBOOK_ROLES, templateOut } from '~~/server/utils/quiz/casebook'
+import { narrowingProblems } from '~~/server/utils/quiz/narrow'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...CASEBOOK_ROLES)
+  const body = await readBodyAs(event, casebookTemplateBody)
+  const problems = narrowingProblems(body.templateId, body.ranges)
+  if (problems.length) badRequest(problems)
+  const db = await useDb()
+  const now = nowIso()
+  const row = await db.insertInto('casebook_templates').values({
+    owner_id: user.id,
+    title: body.title,
+    template_id: body.templateId,
+    ranges_json: JSON.stringify(body.ranges),
+    tolerance: body.tolerance,
+    notes: body.notes ?? null,
+    archived_at: null,
+    created_at: now,
+    updated_at: now,
+  }).returningAll().executeTakeFirstOrThrow()
+  setResponseStatus(event, 201)
+  return templateOut({ ...row, ownerName: user.name })
+})

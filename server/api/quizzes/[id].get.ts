@@ -1,0 +1,12 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
+import { staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { studentQuizDetail } from '~~/server/utils/quiz/student'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireSignedIn(event)
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  if (user.role === 'student') return studentQuizDetail(db, user, await quizForStudent(db, user, id))
+  return staffQuizDetail(db, user, await quizForStaff(db, user, id))
+})

@@ -1,0 +1,16 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { studentQuizDetail } from '~~/server/utils/quiz/student'
+import { sittingOf } from '~~/server/utils/quiz/sitting'
+import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+
+// Finishing ends the sitting early: nothing can be changed after it.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'student')
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  const sitting = assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+  await db.updateTable('quiz_sittings').set({ finished_at: nowIso() }).where('id', '=', sitting.id).where('finished_at', 'is', null).execute()
+  return studentQuizDetail(db, user, quiz)
+})

@@ -1,0 +1,19 @@
+import { quizItemParams } from '#shared/schemas/quiz'
+import { quizForStaff } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const db = await useDb()
+  const quiz = await quizForStaff(db, user, id)
+  await quizItemOf(db, id, itemId)
+  await assertUnlocked(db, id)
+  await db.transaction().execute(async (trx) => {
+    await trx.deleteFrom('quiz_items').where('id', '=', itemId).execute()
+    for (const [i, it] of (await quizItems(trx, id)).entries()) await trx.updateTable('quiz_items').set({ position: i + 1 }).where('id', '=', it.id).execute()
+  })
+  return staffQuizDetail(db, user, quiz)
+})

@@ -1,0 +1,46 @@
+import type { StudentItemCase } from '#shared/types/quiz'
+import { quizItemParams } from '#shared/schemas/quiz'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { readItemConfig } from '~~/server/utils/quiz/items'
+import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
+import { caseTurns, regenerateCase } from '~~/server/utils/cases'
+import { toPresentation } from '~~/server/utils/engine/presentation'
+
+// One item for the bench: the presentation (never the truth), the autosaved draft and
+// the patient's turns so far, so a reload or a restarted server picks up where it was.
+export default defineEventHandler(async (event): Promise<StudentItemCase> => {
+  const user = await requireRole(event, 'student')
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  const item = await quizItemOf(db, id, itemId)
+  const sitting = await sittingOf(db, id, user.id)
+  if (!sitting) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Start the quiz first.', data: { code: 'quiz-not-started' } })
+  }
+  const config = readItemConfig(item)
+  const row = await ensureQuizCase(db, quiz, item, user.id, nowIso())
+  const [attempts, turns] = await Promise.all([
+    db.selectFrom('attempts').select(['id', 'submitted_at'])
+      .where('quiz_id', '=', id).where('quiz_item_id', '=', itemId).where('learner_id', '=', user.id).where('kind', '=', 'quiz')
+      .orderBy('id').execute(),
+    caseTurns(db, row.id),
+  ])
+  return {
+    quizId: id,
+    itemId,
+    position: item.position,
+    prompt: item.prompt,
+    caseId: row.id,
+    mode: config.mode,
+    readScale: config.readScale,
+    interpretation: quiz.interpretation === 1,
+    presentation: toPresentation(regenerateCase(row), config.mode),
+    draft: row.draft_json ? JSON.parse(row.draft_json) : null,
+    turns: turns.map(t => t.result),
+    attempts: attempts.map(a => ({ attemptId: a.id, submittedAt: a.submitted_at })),
+    attemptsLeft: Math.max(0, quiz.attempts_allowed - attempts.length),
+    deadline: sitting.deadline_at,
+    serverNow: nowIso(),
+  }
+})

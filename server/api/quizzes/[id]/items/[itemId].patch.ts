@@ -1,0 +1,43 @@
+import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
+import { quizForStaff } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { readItemConfig, resolveWeights, snapshotSource } from '~~/server/utils/quiz/items'
+import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const body = await readBodyAs(event, quizItemPatch)
+  const db = await useDb()
+  const quiz = await quizForStaff(db, user, id)
+  const item = await quizItemOf(db, id, itemId)
+  await assertUnlocked(db, id)
+  const config = readItemConfig(item)
+  if (body.source) {
+    const { snapshot, tolerance } = await snapshotSource(db, user, body.source)
+    config.source = snapshot
+    if (body.tolerance === undefined) config.tolerance = tolerance
+  }
+  if (body.perStudent !== undefined) config.perStudent = body.perStudent
+  if (config.source.type === 'case') config.perStudent = false
+  if (body.mode !== undefined) config.mode = body.mode
+  if (body.readScale !== undefined) config.readScale = body.readScale
+  if (body.tolerance !== undefined) config.tolerance = body.tolerance
+  if (body.weights !== undefined) config.weights = resolveWeights(body.weights, config.weights)
+  const now = nowIso()
+  await db.transaction().execute(async (trx) => {
+    await trx.updateTable('quiz_items').set({
+      config_json: JSON.stringify(config),
+      ...(body.prompt !== undefined ? { prompt: body.prompt } : {}),
+      updated_at: now,
+    }).where('id', '=', itemId).execute()
+    if (body.position !== undefined && body.position !== item.position) {
+      // move the item and renumber the others 1…n
+      const ordered = (await quizItems(trx, id)).filter(i => i.id !== itemId)
+      ordered.splice(Math.min(body.position - 1, ordered.length), 0, item)
+      for (const [i, it] of ordered.entries()) await trx.updateTable('quiz_items').set({ position: i + 1 }).where('id', '=', it.id).execute()
+    }
+  })
+  return staffQuizDetail(db, user, quiz)
+})

@@ -1,0 +1,60 @@
+import type { GradeCriterion } from '~~/server/utils/engine/grader'
+import { practiceAttemptSchema } from '#shared/schemas/practice'
+import { quizItemParams } from '#shared/schemas/quiz'
+import type { QuizAttemptReceipt } from '#shared/types/quiz'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { readItemConfig } from '~~/server/utils/quiz/items'
+import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
+import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+import { recordAttempt } from '~~/server/utils/attempts'
+import { withCaseErrors } from '~~/server/utils/practice-http'
+import { withKeyLock } from '~~/server/utils/quiz/lock'
+
+// Submit an item: graded and stored by recordAttempt (kind 'quiz') with the item's
+// tolerance and weights. The answer carries no marks: they wait for release.
+export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => {
+  const user = await requireRole(event, 'student')
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const { trial, interpretation, ...attempt } = await readBodyAs(event, practiceAttemptSchema)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  const item = await quizItemOf(db, id, itemId)
+  return withKeyLock(`attempt/${id}/${itemId}/${user.id}`, async () => {
+    const sitting = assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+    const row = await quizCaseRow(db, id, itemId, user.id)
+    if (!row) notFound('That quiz item')
+    const used = await db.selectFrom('attempts').select(eb => eb.fn.countAll<number>().as('n'))
+      .where('quiz_id', '=', id).where('quiz_item_id', '=', itemId).where('learner_id', '=', user.id).where('kind', '=', 'quiz')
+      .executeTakeFirstOrThrow()
+    if (Number(used.n) >= quiz.attempts_allowed) {
+      throw createError({
+        statusCode: 409,
+        statusMessage: 'Conflict',
+        message: quiz.attempts_allowed === 1 ? 'You have already submitted this item.' : `You have used all ${quiz.attempts_allowed} attempts on this item.`,
+        data: { code: 'no-attempts-left' },
+      })
+    }
+    const config = readItemConfig(item)
+    const { interpretation: _i, ...gradeWeights } = config.weights
+    const recorded = await withCaseErrors(() => recordAttempt(db, {
+      caseRow: row,
+      learnerId: user.id,
+      kind: 'quiz',
+      // the interpretation step is marked only when the quiz asks for it
+      attempt: { ...attempt, ...(quiz.interpretation === 1 && interpretation ? { interpretation } : {}) },
+      trial: row.mode === 'patient-turns' ? trial : null,
+      options: { tolerance: config.tolerance, weights: gradeWeights as Record<GradeCriterion, number> },
+      quizId: id,
+      quizItemId: itemId,
+      startedAt: sitting.started_at,
+    }))
+    setResponseStatus(event, 201)
+    const left = Math.max(0, quiz.attempts_allowed - Number(used.n) - 1)
+    return {
+      attemptId: recorded.attemptId,
+      submittedAt: recorded.submittedAt,
+      attemptsLeft: left,
+      message: `Submitted.${left ? ` You may submit this item ${left} more time${left === 1 ? '' : 's'}; the last one counts.` : ''} Marks and feedback come when your tutor releases the results.`,
+    }
+  })
+})

@@ -1,0 +1,22 @@
+import { benchDraftSchema } from '#shared/schemas/practice'
+import { quizItemParams } from '#shared/schemas/quiz'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
+import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+
+// Autosave, stored on the case row as the practice API stores it. Refused (409)
+// once the sitting has ended: what was saved before the deadline stays as it was.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'student')
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const draft = await readBodyAs(event, benchDraftSchema)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  await quizItemOf(db, id, itemId)
+  assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+  const row = await quizCaseRow(db, id, itemId, user.id)
+  if (!row) notFound('That quiz item')
+  const savedAt = nowIso()
+  await db.updateTable('cases').set({ draft_json: JSON.stringify({ ...draft, savedAt }), updated_at: savedAt }).where('id', '=', row.id).execute()
+  return { savedAt }
+})

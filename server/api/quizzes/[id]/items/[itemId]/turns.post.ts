@@ -1,0 +1,23 @@
+import type { PatientTurnsResult } from '#shared/engine/presentation'
+import { turnRequestSchema } from '#shared/schemas/practice'
+import { quizItemParams } from '#shared/schemas/quiz'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
+import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+import { recordTurn } from '~~/server/utils/cases'
+import { withCaseErrors } from '~~/server/utils/practice-http'
+
+// Patient-turns: the patient turns the rods (stored as a numbered trial, exactly as
+// in practice, so the attempt can name the trial it read).
+export default defineEventHandler(async (event): Promise<PatientTurnsResult> => {
+  const user = await requireRole(event, 'student')
+  const { id, itemId } = paramsAs(event, quizItemParams)
+  const setting = await readBodyAs(event, turnRequestSchema)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  await quizItemOf(db, id, itemId)
+  assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+  const row = await quizCaseRow(db, id, itemId, user.id)
+  if (!row) notFound('That quiz item')
+  return withCaseErrors(() => recordTurn(db, row, setting))
+})

@@ -1,0 +1,30 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizItemBody } from '#shared/schemas/quiz'
+import { quizForStaff } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { itemConfigFromBody } from '~~/server/utils/quiz/items'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const { id } = paramsAs(event, idParam)
+  const body = await readBodyAs(event, quizItemBody)
+  const db = await useDb()
+  const quiz = await quizForStaff(db, user, id)
+  await assertUnlocked(db, id)
+  const config = await itemConfigFromBody(db, user, body)
+  const last = await db.selectFrom('quiz_items').select(eb => eb.fn.max<number>('position').as('p')).where('quiz_id', '=', id).executeTakeFirst()
+  const now = nowIso()
+  await db.insertInto('quiz_items').values({
+    quiz_id: id,
+    position: Number(last?.p ?? 0) + 1,
+    kind: config.kind,
+    prompt: body.prompt ?? '',
+    config_json: JSON.stringify(config),
+    created_at: now,
+    updated_at: now,
+  }).execute()
+  await db.updateTable('quizzes').set({ updated_at: now }).where('id', '=', id).execute()
+  setResponseStatus(event, 201)
+  return staffQuizDetail(db, user, quiz)
+})

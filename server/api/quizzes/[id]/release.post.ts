@@ -1,0 +1,54 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { quizPhase } from '~~/server/utils/quiz/timing'
+
+// Release results: unlocks every student's feedback and e-mails each of them. Only
+// after the quiz has closed, so nobody still sitting it can see an answer.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const quiz = await quizForStaff(db, user, id)
+  if (quiz.released_at) {
+    return { releasedAt: quiz.released_at, mailed: 0, message: 'The results were already released.' }
+  }
+  const phase = quizPhase(quiz)
+  if (phase !== 'closed') {
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'Conflict',
+      message: phase === 'open'
+        ? 'The quiz is still open: release the results after it closes (or bring the close time forward).'
+        : 'The quiz has not been sat yet: release the results after it closes.',
+      data: { code: 'quiz-not-closed' },
+    })
+  }
+  const now = nowIso()
+  await db.transaction().execute(async (trx) => {
+    await trx.updateTable('quizzes').set({ released_at: now, released_by: user.id, updated_at: now }).where('id', '=', id).execute()
+    await writeAudit(trx, { actorId: user.id, action: 'quiz.released', targetType: 'quiz', targetId: id, detail: { title: quiz.title } })
+  })
+  const students = await quizStudents(db, id)
+  const sat = new Set((await db.selectFrom('quiz_sittings').select('student_id').where('quiz_id', '=', id).execute()).map(s => s.student_id))
+  const link = `${siteOrigin(event)}/student/quizzes/${id}`
+  let mailed = 0
+  for (const s of students) {
+    const { sent } = await sendMail({
+      to: s.email,
+      subject: `Results released: ${quiz.title}`,
+      text: [
+        `Hello ${s.name},`,
+        '',
+        sat.has(s.id)
+          ? `Your tutor has released the results of “${quiz.title}”. Your marks, the slips in each record and the worked answers are ready:`
+          : `Your tutor has released the results of “${quiz.title}”. You did not sit it; the worked answers are ready to review:`,
+        link,
+        '',
+        'Cyclodial is a simulation for education; real assessment follows local protocols under licensed clinical supervision.',
+      ].join('\n'),
+    })
+    if (sent) mailed++
+  }
+  return { releasedAt: now, mailed, message: `Results released; ${students.length} student${students.length === 1 ? '' : 's'} e-mailed.` }
+})

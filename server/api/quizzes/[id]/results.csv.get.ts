@@ -1,0 +1,18 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizForStaff } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { resultsCsv } from '~~/server/utils/quiz/csv'
+import { computeResults } from '~~/server/utils/quiz/results'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const quiz = await quizForStaff(db, user, id)
+  const { columns, rows } = await computeResults(db, quiz)
+  const slug = quiz.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'quiz'
+  setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
+  setResponseHeader(event, 'content-disposition', `attachment; filename="${slug}-${quiz.id}-results.csv"`)
+  setResponseHeader(event, 'cache-control', 'no-store')
+  return resultsCsv(columns, rows)
+})

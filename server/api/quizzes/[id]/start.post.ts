@@ -1,0 +1,34 @@
+import { idParam } from '#shared/schemas/admin'
+import { quizForStudent } from '~~/server/utils/quiz/access'
+import { studentQuizDetail } from '~~/server/utils/quiz/student'
+import { ensureQuizCase, quizItems, sittingOf } from '~~/server/utils/quiz/sitting'
+import { quizPhase, sittingDeadline } from '~~/server/utils/quiz/timing'
+
+// Starting stores the sitting (its deadline fixed now) and every item's case in one
+// transaction. Starting again is harmless: the first start stands.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, 'student')
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const quiz = await quizForStudent(db, user, id)
+  const existing = await sittingOf(db, id, user.id)
+  if (!existing) {
+    const phase = quizPhase(quiz)
+    if (phase !== 'open') {
+      throw createError({
+        statusCode: 409,
+        statusMessage: 'Conflict',
+        message: phase === 'upcoming' ? 'This quiz has not opened yet.' : 'This quiz has closed; it can no longer be started.',
+        data: { code: phase === 'upcoming' ? 'quiz-not-open' : 'quiz-closed' },
+      })
+    }
+    const now = nowIso()
+    await db.transaction().execute(async (trx) => {
+      // a second request racing this one finds the sitting inside the transaction
+      if (await sittingOf(trx, id, user.id)) return
+      await trx.insertInto('quiz_sittings').values({ quiz_id: id, student_id: user.id, started_at: now, deadline_at: sittingDeadline(quiz, now), finished_at: null }).execute()
+      for (const item of await quizItems(trx, id)) await ensureQuizCase(trx, quiz, item, user.id, now)
+    })
+  }
+  return studentQuizDetail(db, user, quiz)
+})

@@ -1,0 +1,8 @@
+import { readRoster } from '~~/server/utils/roster-upload'
+import { ROSTER_ROLES } from '~~/server/utils/roster'
+
+// Check a roster CSV without importing anything: a report line per row.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...ROSTER_ROLES)
+  return readRoster(event, user)
+})

@@ -1,0 +1,55 @@
+// One quiz attempt opened for review: the bench as the student left it (gaze,
+// distance, readings, prisms, lights, record, the trial they read) and — for staff
+// always, for the student once feedback is open — the marks as they stand.
+import type { Kysely } from 'kysely'
+import type { SessionUserData } from '#shared/auth/roles'
+import type { PatientTurnsResult } from '#shared/engine/presentation'
+import type { Distance, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
+import type { AttemptRow, Database, QuizRow } from '~~/db/schema'
+import { caseTurns, regenerateCase } from '../cases'
+import { toPresentation } from '../engine/presentation'
+import { attemptFeedback } from './feedback'
+import { readItemConfig } from './items'
+import { loadOverrides } from './results'
+import { feedbackReleased } from './timing'
+
+export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserData, quiz: QuizRow, attempt: AttemptRow) {
+  const [item, caseRow, student, latest] = await Promise.all([
+    db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow(),
+    db.selectFrom('cases').selectAll().where('id', '=', attempt.case_id).executeTakeFirstOrThrow(),
+    db.selectFrom('users').select(['id', 'name', 'email']).where('id', '=', attempt.learner_id).executeTakeFirstOrThrow(),
+    db.selectFrom('attempts').select('id').where('quiz_id', '=', quiz.id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
+      .orderBy('id', 'desc').executeTakeFirstOrThrow(),
+  ])
+  const config = readItemConfig(item)
+  const staff = viewer.role !== 'student'
+  const open = staff || feedbackReleased(quiz)
+  const turn = attempt.trial ? (await caseTurns(db, caseRow.id)).find(t => t.trial === attempt.trial)?.result ?? null : null
+  const interpretation = attempt.interpretation_json ? (JSON.parse(attempt.interpretation_json) as { given?: unknown }).given ?? null : null
+  const overrides = staff ? (await loadOverrides(db, quiz.id)).filter(o => o.attempt_id === attempt.id) : []
+  return {
+    quiz: { id: quiz.id, title: quiz.title },
+    item: { id: item.id, position: item.position, prompt: item.prompt, mode: config.mode, readScale: config.readScale, ...(staff ? { title: config.source.title, tolerance: config.tolerance } : {}) },
+    student: { id: student.id, name: student.name, ...(staff ? { email: student.email } : {}) },
+    counts: latest.id === attempt.id,
+    attempt: {
+      id: attempt.id,
+      gaze: attempt.gaze as Gaze,
+      distance: attempt.distance as Distance,
+      readings: JSON.parse(attempt.readings_json) as PerEye<number>,
+      prisms: JSON.parse(attempt.prisms_json) as Prism[],
+      lights: attempt.lights as Lights,
+      record: attempt.record_text,
+      trial: attempt.trial,
+      interpretation,
+      startedAt: attempt.started_at,
+      submittedAt: attempt.submitted_at,
+    },
+    /** Patient-turns: where the patient left the rods on the trial the student read. */
+    turn: turn as PatientTurnsResult | null,
+    case: { id: caseRow.id, mode: caseRow.mode, readScale: caseRow.read_scale === 1, presentation: toPresentation(regenerateCase(caseRow), caseRow.mode) },
+    feedbackOpen: open,
+    result: open ? await attemptFeedback(db, attempt, config, quiz.interpretation === 1) : null,
+    overrides: overrides.map(o => ({ criterion: o.criterion, previousScore: o.previous_score, score: o.score, reason: o.reason, by: o.actorName, at: o.created_at })),
+  }
+}

@@ -1,0 +1,28 @@
+// Feedback on a quiz attempt: the result exactly as the grader first gave it
+// (attemptResultFromRow), with the quiz's interpretation weight and the tutor's
+// overrides applied to the marks, score and points.
+import type { Kysely } from 'kysely'
+import type { StudentItemFeedback } from '#shared/types/quiz'
+import type { AttemptRow, Database } from '~~/db/schema'
+import { attemptResultFromRow } from '../attempts'
+import type { QuizItemConfig } from './items'
+import { effectiveMarks, loadOverrides, pointsOf } from './results'
+
+export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean): Promise<StudentItemFeedback> {
+  const overrides = (await loadOverrides(db, attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
+  const marks = effectiveMarks(attempt, config, interpretationOn, overrides)
+  const points = pointsOf(marks)
+  const result = attemptResultFromRow(attempt)
+  return {
+    ...result,
+    marks: marks.map(m => ({
+      criterion: m.criterion,
+      score: m.score,
+      weight: m.weight,
+      reason: m.override ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
+      overridden: !!m.override,
+    })),
+    score: points.possible ? points.earned / points.possible : 0,
+    points,
+  }
+}

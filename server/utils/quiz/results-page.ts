@@ -1,0 +1,61 @@
+// Filtering, sorting and paging of a results table (done in memory: a quiz has
+// hundreds of students at most, and every total is computed anyway).
+import type { ResultsQuery } from '#shared/schemas/quiz'
+import { CRITERION_LABELS } from '#shared/schemas/quiz'
+import type { ItemColumn, StudentResult } from './results'
+
+export interface ResultsPageQuery extends Required<Pick<ResultsQuery, 'sort' | 'dir' | 'page' | 'pageSize'>> {
+  q?: string
+  cohortId?: number
+  status?: StudentResult['status']
+}
+
+export function resultsPage(columns: ItemColumn[], rows: StudentResult[], query: ResultsPageQuery) {
+  let list = rows
+  if (query.q) {
+    const q = query.q.toLowerCase()
+    list = list.filter(r => r.name.toLowerCase().includes(q) || r.email.toLowerCase().includes(q))
+  }
+  if (query.cohortId) list = list.filter(r => r.cohortId === query.cohortId)
+  if (query.status) list = list.filter(r => r.status === query.status)
+
+  const itemSort = /^item-(\d+)$/.exec(query.sort)
+  const key = (r: StudentResult): string | number => {
+    if (itemSort) return r.items[Number(itemSort[1])]?.earned ?? -1
+    switch (query.sort) {
+      case 'total': return r.earned
+      case 'slips': return r.slips
+      case 'time': return r.timeTakenMs ?? -1
+      case 'status': return r.status
+      default: return r.name.toLowerCase()
+    }
+  }
+  const sign = query.dir === 'desc' ? -1 : 1
+  list = [...list].sort((a, b) => {
+    const x = key(a)
+    const y = key(b)
+    const c = typeof x === 'number' && typeof y === 'number' ? x - y : String(x).localeCompare(String(y))
+    return c * sign || a.name.localeCompare(b.name)
+  })
+  const total = list.length
+  const items = list.slice((query.page - 1) * query.pageSize, query.page * query.pageSize)
+  return {
+    columns: columns.map(c => ({
+      id: c.id,
+      position: c.position,
+      title: c.config.source.title,
+      possible: c.possible,
+      criteria: c.criteria.map(k => ({ criterion: k, label: CRITERION_LABELS[k] })),
+    })),
+    items,
+    total,
+    page: query.page,
+    pageSize: query.pageSize,
+    summary: {
+      students: rows.length,
+      started: rows.filter(r => r.status !== 'not-started').length,
+      finished: rows.filter(r => r.status === 'finished').length,
+      meanScore: rows.filter(r => r.status !== 'not-started').reduce((a, r, _, arr) => a + r.score / arr.length, 0),
+    },
+  }
+}

@@ -1,0 +1,201 @@
+// The results of a quiz: one row per assigned student, one cell per item. The
+// attempt that counts is the student's last submitted attempt on the item; a
+// tutor's overrides replace single criteria; the interpretation step (when the
+// quiz asks for it) counts as one more criterion with its own weight.
+import type { Kysely } from 'kysely'
+import type { QuizCriterion } from '#shared/schemas/quiz'
+import { QUIZ_CRITERIA } from '#shared/schemas/quiz'
+import type { AttemptRow, Database, QuizItemRow, QuizRow, QuizSittingRow } from '~~/db/schema'
+import type { QuizItemConfig } from './items'
+import { readItemConfig } from './items'
+import { quizStudents } from './access'
+import type { SittingStatus } from '#shared/types/quiz'
+import { sittingEnd, sittingStatus } from './timing'
+
+export interface EffectiveMark {
+  criterion: QuizCriterion
+  score: number
+  weight: number
+  reason: string
+  /** Set when a tutor changed this mark. */
+  override?: { previousScore: number, reason: string, by: string | null, at: string }
+}
+
+export interface ItemCell {
+  attemptId: number | null
+  attempts: number
+  submittedAt: string | null
+  /** Points earned / possible on the attempt that counts (null = not submitted). */
+  earned: number | null
+  possible: number | null
+  marks: EffectiveMark[]
+  slips: string[]
+  overridden: boolean
+  /** Saved bench state but nothing submitted. */
+  draftOnly: boolean
+}
+
+export interface StudentResult {
+  studentId: number
+  name: string
+  email: string
+  cohortId: number
+  cohortName: string
+  status: SittingStatus
+  startedAt: string | null
+  finishedAt: string | null
+  timeTakenMs: number | null
+  items: Record<number, ItemCell>
+  earned: number
+  possible: number
+  /** 0–1 over every item's possible points (unsubmitted items count as 0). */
+  score: number
+  slips: number
+}
+
+export interface ItemColumn {
+  id: number
+  position: number
+  config: QuizItemConfig
+  /** Criteria shown for the item: those that count (weight > 0) and appear in its marks. */
+  criteria: QuizCriterion[]
+  /** Points available on the item (the largest possible seen, else from the weights). */
+  possible: number
+}
+
+interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
+
+/** Marks of one attempt as they stand: grader marks + interpretation, with overrides applied. */
+export function effectiveMarks(attempt: Pick<AttemptRow, 'marks_json' | 'interpretation_json'>, config: QuizItemConfig, interpretationOn: boolean, overrides: OverrideRow[]): EffectiveMark[] {
+  const marks: EffectiveMark[] = (JSON.parse(attempt.marks_json) as { criterion: QuizCriterion, score: number, weight: number, reason: string }[])
+    .map(m => ({ criterion: m.criterion, score: m.score, weight: m.weight, reason: m.reason }))
+  if (interpretationOn) {
+    // recordAttempt stores { given, result }: the learner's answer and its grade
+    const interp = attempt.interpretation_json ? (JSON.parse(attempt.interpretation_json) as { result?: { score: number } }).result : undefined
+    marks.push({
+      criterion: 'interpretation',
+      score: interp?.score ?? 0,
+      weight: config.weights.interpretation,
+      reason: interp ? 'Three-step interpretation.' : 'No interpretation given.',
+    })
+  }
+  // the latest override of each criterion wins
+  for (const o of [...overrides].sort((a, b) => a.created_at.localeCompare(b.created_at))) {
+    const m = marks.find(x => x.criterion === o.criterion)
+    if (!m) continue
+    m.override = { previousScore: m.override?.previousScore ?? o.previous_score, reason: o.reason, by: o.actorName, at: o.created_at }
+    m.score = o.score
+  }
+  return marks
+}
+
+export const pointsOf = (marks: EffectiveMark[]) => ({
+  earned: marks.reduce((a, m) => a + m.weight * m.score, 0),
+  possible: marks.reduce((a, m) => a + m.weight, 0),
+})
+
+/** Points an item is worth before anyone sits it: the weights of the criteria a normal case marks. */
+function nominalPossible(config: QuizItemConfig, interpretationOn: boolean): number {
+  const record: QuizCriterion[] = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance']
+  return record.reduce((a, c) => a + config.weights[c], 0) + (interpretationOn ? config.weights.interpretation : 0)
+}
+
+export async function loadOverrides(db: Kysely<Database>, quizId: number): Promise<OverrideRow[]> {
+  return db.selectFrom('quiz_mark_overrides')
+    .leftJoin('users', 'users.id', 'quiz_mark_overrides.actor_id')
+    .select(['quiz_mark_overrides.attempt_id', 'quiz_mark_overrides.criterion', 'quiz_mark_overrides.previous_score', 'quiz_mark_overrides.score', 'quiz_mark_overrides.reason', 'quiz_mark_overrides.created_at', 'users.name as actorName'])
+    .where('quiz_mark_overrides.quiz_id', '=', quizId)
+    .execute()
+}
+
+export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: Date = new Date()): Promise<{ columns: ItemColumn[], rows: StudentResult[] }> {
+  const itemRows: QuizItemRow[] = await db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quiz.id).orderBy('position').execute()
+  const interpretationOn = quiz.interpretation === 1
+  const [students, sittings, attempts, overrides, drafts] = await Promise.all([
+    quizStudents(db, quiz.id),
+    db.selectFrom('quiz_sittings').selectAll().where('quiz_id', '=', quiz.id).execute(),
+    db.selectFrom('attempts')
+      .select(['id', 'learner_id', 'quiz_item_id', 'marks_json', 'interpretation_json', 'slips_json', 'submitted_at'])
+      .where('quiz_id', '=', quiz.id).where('kind', '=', 'quiz').orderBy('id').execute(),
+    loadOverrides(db, quiz.id),
+    db.selectFrom('cases').select(['owner_id', 'quiz_item_id']).where('quiz_id', '=', quiz.id).where('purpose', '=', 'quiz').where('draft_json', 'is not', null).execute(),
+  ])
+  const sittingOf = new Map<number, QuizSittingRow>(sittings.map(s => [s.student_id, s]))
+  const overridesOf = new Map<number, OverrideRow[]>()
+  for (const o of overrides) overridesOf.set(o.attempt_id, [...(overridesOf.get(o.attempt_id) ?? []), o])
+  const hasDraft = new Set(drafts.map(d => `${d.owner_id}/${d.quiz_item_id}`))
+
+  const columns: ItemColumn[] = itemRows.map((r) => {
+    const config = readItemConfig(r)
+    return { id: r.id, position: r.position, config, criteria: [], possible: nominalPossible(config, interpretationOn) }
+  })
+  const seenCriteria = new Map<number, Set<QuizCriterion>>(columns.map(c => [c.id, new Set()]))
+  const maxPossible = new Map<number, number>()
+
+  const rows: StudentResult[] = students.map((st) => {
+    const sitting = sittingOf.get(st.id)
+    const mine = attempts.filter(a => a.learner_id === st.id)
+    const items: Record<number, ItemCell> = {}
+    let earned = 0
+    let slips = 0
+    let lastSubmit: string | null = null
+    for (const col of columns) {
+      const onItem = mine.filter(a => a.quiz_item_id === col.id)
+      const counted = onItem.at(-1)
+      if (!counted) {
+        items[col.id] = { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], overridden: false, draftOnly: hasDraft.has(`${st.id}/${col.id}`) }
+        continue
+      }
+      const marks = effectiveMarks(counted, col.config, interpretationOn, overridesOf.get(counted.id) ?? [])
+      const pts = pointsOf(marks)
+      const slipCodes = (JSON.parse(counted.slips_json) as { code: string }[]).map(s => s.code)
+      for (const m of marks) if (m.weight > 0) seenCriteria.get(col.id)!.add(m.criterion)
+      maxPossible.set(col.id, Math.max(maxPossible.get(col.id) ?? 0, pts.possible))
+      items[col.id] = {
+        attemptId: counted.id,
+        attempts: onItem.length,
+        submittedAt: counted.submitted_at,
+        earned: pts.earned,
+        possible: pts.possible,
+        marks,
+        slips: slipCodes,
+        overridden: marks.some(m => m.override),
+        draftOnly: false,
+      }
+      earned += pts.earned
+      slips += slipCodes.length
+      if (!lastSubmit || counted.submitted_at > lastSubmit) lastSubmit = counted.submitted_at
+    }
+    const end = sitting ? sittingEnd(sitting, now) ?? lastSubmit : null
+    return {
+      studentId: st.id,
+      name: st.name,
+      email: st.email,
+      cohortId: st.cohortId,
+      cohortName: st.cohortName,
+      status: sittingStatus(sitting, now),
+      startedAt: sitting?.started_at ?? null,
+      finishedAt: sitting ? sittingEnd(sitting, now) : null,
+      timeTakenMs: sitting && end ? Math.max(0, Date.parse(end) - Date.parse(sitting.started_at)) : null,
+      items,
+      earned,
+      possible: 0,
+      score: 0,
+      slips,
+    }
+  })
+
+  for (const col of columns) {
+    const seen = seenCriteria.get(col.id)!
+    col.criteria = seen.size
+      ? QUIZ_CRITERIA.filter(c => seen.has(c))
+      : QUIZ_CRITERIA.filter(c => col.config.weights[c] > 0 && !(c === 'action' || c === 'reason') && (c !== 'interpretation' || interpretationOn))
+    col.possible = maxPossible.get(col.id) ?? col.possible
+  }
+  for (const r of rows) {
+    // an unsubmitted item still counts: it is worth what the item offers, earned 0
+    r.possible = columns.reduce((a, c) => a + (r.items[c.id]?.possible ?? c.possible), 0)
+    r.score = r.possible ? r.earned / r.possible : 0
+  }
+  return { columns, rows }
+}

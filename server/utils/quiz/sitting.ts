@@ -1,0 +1,45 @@
+// A student's sitting: starting it stores every item's case (derived from the
+// quiz seed, the item and the student), so what the student sees is fixed from
+// the first moment and can be replayed by the tutor.
+import { createError } from 'h3'
+import type { Kysely, Transaction } from 'kysely'
+import type { CaseRow, Database, QuizItemRow, QuizRow } from '~~/db/schema'
+import { insertCase } from '../cases'
+import { buildItemCase, readItemConfig } from './items'
+
+type Db = Kysely<Database> | Transaction<Database>
+
+/** The case row for one student and item, or undefined. */
+export function quizCaseRow(db: Db, quizId: number, itemId: number, studentId: number): Promise<CaseRow | undefined> {
+  return db.selectFrom('cases').selectAll()
+    .where('purpose', '=', 'quiz').where('quiz_id', '=', quizId).where('quiz_item_id', '=', itemId).where('owner_id', '=', studentId)
+    .orderBy('id').executeTakeFirst()
+}
+
+/** Stores the student's case for an item if it is not stored yet; returns the row. */
+export async function ensureQuizCase(db: Db, quiz: QuizRow, item: QuizItemRow, studentId: number, now: string): Promise<CaseRow> {
+  const existing = await quizCaseRow(db, quiz.id, item.id, studentId)
+  if (existing) return existing
+  const config = readItemConfig(item)
+  const built = buildItemCase(config, quiz.seed, item.id, studentId)
+  const common = { ownerId: studentId, purpose: 'quiz' as const, mode: config.mode, readScale: config.readScale, quizId: quiz.id, quizItemId: item.id, now }
+  const { row } = built.specJson
+    ? await insertCase(db, { ...common, spec: JSON.parse(built.specJson), specId: built.specId })
+    // the template names the condition: hidden from the student until results are open
+    : await insertCase(db, { ...common, templateId: built.templateId!, seed: built.seed, templateHidden: true })
+  return row
+}
+
+export async function quizItems(db: Db, quizId: number): Promise<QuizItemRow[]> {
+  return db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quizId).orderBy('position').execute()
+}
+
+export async function quizItemOf(db: Db, quizId: number, itemId: number): Promise<QuizItemRow> {
+  const item = await db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quizId).where('id', '=', itemId).executeTakeFirst()
+  if (!item) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'That quiz item was not found.', data: { code: 'not-found' } })
+  return item
+}
+
+export async function sittingOf(db: Db, quizId: number, studentId: number) {
+  return db.selectFrom('quiz_sittings').selectAll().where('quiz_id', '=', quizId).where('student_id', '=', studentId).executeTakeFirst()
+}

@@ -1,0 +1,135 @@
+// Response shapes of the quiz routes, shared by the routes and the pages.
+import type { Presentation, PatientTurnsResult } from '../engine/presentation'
+import type { Mode } from '../engine/types'
+import type { NarrowedRanges } from '../schemas/casebook'
+import type { QuizCriterion } from '../schemas/quiz'
+import type { BenchDraft } from '../schemas/practice'
+import type { AttemptResult } from './practice'
+
+export type QuizPhase = 'draft' | 'upcoming' | 'open' | 'closed'
+export type SittingStatus = 'not-started' | 'in-progress' | 'finished'
+
+export interface QuizSettings {
+  id: number
+  title: string
+  instructions: string
+  timeLimitMinutes: number | null
+  opensAt: string | null
+  closesAt: string | null
+  attemptsAllowed: number
+  interpretation: boolean
+  holdFeedback: boolean
+  phase: QuizPhase
+  published: boolean
+  archived: boolean
+  releasedAt: string | null
+  /** Feedback is open to students (released, or closed without holding feedback). */
+  feedbackOpen: boolean
+}
+
+export interface StaffQuizSummary extends QuizSettings {
+  ownerName: string | null
+  mine: boolean
+  cohorts: { id: number, name: string }[]
+  itemCount: number
+  students: number
+  started: number
+  finished: number
+}
+
+export type StaffItemSource
+  = | { type: 'engine', templateId: string, title: string }
+    | { type: 'template', id: number, templateId: string, ranges: NarrowedRanges, title: string }
+    | { type: 'case', id: number, title: string }
+
+export interface StaffQuizItem {
+  id: number
+  position: number
+  kind: string
+  prompt: string
+  source: StaffItemSource
+  perStudent: boolean
+  mode: Mode
+  readScale: boolean
+  tolerance: number
+  weights: Record<QuizCriterion, number>
+}
+
+export interface StaffQuizDetail extends StaffQuizSummary {
+  items: StaffQuizItem[]
+  /** Items and the interpretation setting are fixed once a student has started. */
+  locked: boolean
+  assignableCohorts: { id: number, name: string }[]
+}
+
+export interface StudentSitting {
+  status: SittingStatus
+  startedAt: string | null
+  deadline: string | null
+  finishedAt: string | null
+}
+
+export interface StudentQuizSummary {
+  id: number
+  title: string
+  instructions: string
+  phase: QuizPhase
+  opensAt: string | null
+  closesAt: string | null
+  timeLimitMinutes: number | null
+  attemptsAllowed: number
+  interpretation: boolean
+  itemCount: number
+  feedbackOpen: boolean
+  sitting: StudentSitting
+}
+
+/** An attempt's result as the student sees it once feedback is open: the tutor's overrides applied. */
+export interface StudentItemFeedback extends Omit<AttemptResult, 'marks'> {
+  marks: { criterion: QuizCriterion, score: number, weight: number, reason: string, overridden: boolean }[]
+}
+
+export interface StudentQuizItem {
+  id: number
+  position: number
+  prompt: string
+  mode: Mode
+  readScale: boolean
+  saved: boolean
+  attempts: number
+  attemptsLeft: number
+  lastSubmittedAt: string | null
+  feedback?: StudentItemFeedback
+}
+
+export interface StudentQuizDetail extends StudentQuizSummary {
+  items: StudentQuizItem[]
+  total?: { earned: number, possible: number, score: number }
+}
+
+/** What the bench needs to sit one item (never the truth). */
+export interface StudentItemCase {
+  quizId: number
+  itemId: number
+  position: number
+  prompt: string
+  caseId: number
+  mode: Mode
+  readScale: boolean
+  interpretation: boolean
+  presentation: Presentation
+  /** The autosaved bench, as the practice API stores it. */
+  draft: (BenchDraft & { savedAt: string }) | null
+  turns: PatientTurnsResult[]
+  attempts: { attemptId: number, submittedAt: string }[]
+  attemptsLeft: number
+  deadline: string | null
+  serverNow: string
+}
+
+export interface QuizAttemptReceipt {
+  attemptId: number
+  submittedAt: string
+  attemptsLeft: number
+  message: string
+}
