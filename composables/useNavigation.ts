@@ -8,13 +8,18 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/student', label: 'Home' },
     { to: '/practice', label: 'Practice' },
     { to: '/practice/history', label: 'History' },
+    { to: '/student/quizzes', label: 'Quizzes' },
   ],
   tutor: [
     { to: '/tutor', label: 'Home' },
+    { to: '/casebook', label: 'Casebook' },
+    { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
   ],
   lecturer: [
     { to: '/lecturer', label: 'Home' },
+    { to: '/casebook', label: 'Casebook' },
+    { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
   ],
   admin: [

@@ -4,6 +4,7 @@
 import type { Kysely } from 'kysely'
 import type { Database } from '../schema'
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedSchool } from './school'
+import { seedQuizzes } from './quizzes'
 
 export interface SeedOptions {
   dev: boolean
@@ -25,9 +26,10 @@ export async function seedDemoIfWanted(db: Kysely<Database>, options: SeedOption
   if (already) return false
   const hash = await options.hashPassword(DEMO_PASSWORD)
   const now = new Date().toISOString()
-  await db.transaction().execute(async (trx) => {
-    await seedSchool(trx, hash, now)
+  const quizzes = await db.transaction().execute(async (trx) => {
+    const ids = await seedSchool(trx, hash, now)
+    return seedQuizzes(trx, ids, now)
   })
-  options.log?.(`demo school seeded: ${DEMO_PEOPLE.length} people`)
+  options.log?.(`demo school seeded: ${DEMO_PEOPLE.length} people, ${quizzes} quizzes`)
   return true
 }

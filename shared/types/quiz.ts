@@ -1,6 +1,6 @@
 // Response shapes of the quiz routes, shared by the routes and the pages.
 import type { Presentation, PatientTurnsResult } from '../engine/presentation'
-import type { Mode } from '../engine/types'
+import type { Distance, Gaze, Lights, Mode, PerEye, Prism } from '../engine/types'
 import type { NarrowedRanges } from '../schemas/casebook'
 import type { QuizCriterion } from '../schemas/quiz'
 import type { BenchDraft } from '../schemas/practice'
@@ -132,4 +132,94 @@ export interface QuizAttemptReceipt {
   submittedAt: string
   attemptsLeft: number
   message: string
+}
+
+// ---- results ---------------------------------------------------------------
+
+export interface EffectiveMark {
+  criterion: QuizCriterion
+  score: number
+  weight: number
+  reason: string
+  /** Set when a tutor changed this mark. */
+  override?: { previousScore: number, reason: string, by: string | null, at: string }
+}
+
+export interface ItemCell {
+  attemptId: number | null
+  attempts: number
+  submittedAt: string | null
+  /** Points earned / possible on the attempt that counts (null = not submitted). */
+  earned: number | null
+  possible: number | null
+  marks: EffectiveMark[]
+  slips: string[]
+  overridden: boolean
+  /** Saved bench state but nothing submitted. */
+  draftOnly: boolean
+}
+
+export interface StudentResult {
+  studentId: number
+  name: string
+  email: string
+  cohortId: number
+  cohortName: string
+  status: SittingStatus
+  startedAt: string | null
+  finishedAt: string | null
+  timeTakenMs: number | null
+  items: Record<number, ItemCell>
+  earned: number
+  possible: number
+  /** 0–1 over every item's possible points (unsubmitted items count as 0). */
+  score: number
+  slips: number
+}
+
+export interface ResultsColumn {
+  id: number
+  position: number
+  /** The item's source title (names the condition: staff only). */
+  title: string
+  possible: number
+  criteria: { criterion: QuizCriterion, label: string }[]
+}
+
+export interface QuizResultsResponse {
+  quiz: QuizSettings
+  columns: ResultsColumn[]
+  items: StudentResult[]
+  total: number
+  page: number
+  pageSize: number
+  summary: { students: number, started: number, finished: number, meanScore: number }
+}
+
+/** One quiz attempt opened for review (staff always; the student, marks only once feedback is open). */
+export interface QuizAttemptView {
+  quiz: { id: number, title: string }
+  item: { id: number, position: number, prompt: string, mode: Mode, readScale: boolean, title?: string, tolerance?: number }
+  student: { id: number, name: string, email?: string }
+  /** The attempt that counts (the student's last on the item). */
+  counts: boolean
+  attempt: {
+    id: number
+    gaze: Gaze
+    distance: Distance
+    readings: PerEye<number>
+    prisms: Prism[]
+    lights: Lights
+    record: string
+    trial: number | null
+    interpretation: unknown
+    startedAt: string | null
+    submittedAt: string
+  }
+  /** Patient-turns: where the patient left the rods on the trial the student read. */
+  turn: PatientTurnsResult | null
+  case: { id: number, mode: Mode, readScale: boolean, presentation: Presentation }
+  feedbackOpen: boolean
+  result: StudentItemFeedback | null
+  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
 }

@@ -41,6 +41,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/casebook/preview': ['tutor', 'lecturer'],
   'GET /api/quizzes': 'signed-in',
   'POST /api/quizzes': ['tutor', 'lecturer', 'admin'],
+  'GET /api/quizzes/cohorts': ['tutor', 'lecturer', 'admin'],
   'GET /api/quizzes/[id]': 'signed-in',
   'PATCH /api/quizzes/[id]': ['tutor', 'lecturer', 'admin'],
   'POST /api/quizzes/[id]/duplicate': ['tutor', 'lecturer', 'admin'],

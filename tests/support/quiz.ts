@@ -13,7 +13,7 @@ export async function cohortIds(admin: Client): Promise<Record<string, number>> 
 
 export const minutesFromNow = (m: number) => new Date(Date.now() + m * 60_000).toISOString()
 
-export interface BuiltQuiz { id: number, items: { id: number, position: number, source: any }[] }
+export interface BuiltQuiz { id: number, phase: string, items: { id: number, position: number, source: any }[], [key: string]: any }
 
 /** Create a quiz with the given items and publish it. */
 export async function publishQuiz(tutor: Client, settings: Record<string, unknown>, items: Record<string, unknown>[]): Promise<BuiltQuiz> {

@@ -4,6 +4,7 @@
 import type { Kysely } from 'kysely'
 import type { SessionUserData } from '#shared/auth/roles'
 import type { PatientTurnsResult } from '#shared/engine/presentation'
+import type { QuizAttemptView } from '#shared/types/quiz'
 import type { Distance, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
 import type { AttemptRow, Database, QuizRow } from '~~/db/schema'
 import { caseTurns, regenerateCase } from '../cases'
@@ -13,7 +14,7 @@ import { readItemConfig } from './items'
 import { loadOverrides } from './results'
 import { feedbackReleased } from './timing'
 
-export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserData, quiz: QuizRow, attempt: AttemptRow) {
+export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserData, quiz: QuizRow, attempt: AttemptRow): Promise<QuizAttemptView> {
   const [item, caseRow, student, latest] = await Promise.all([
     db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow(),
     db.selectFrom('cases').selectAll().where('id', '=', attempt.case_id).executeTakeFirstOrThrow(),

@@ -4,7 +4,8 @@
 // formula are escaped so opening the file never runs anything.
 import Papa from 'papaparse'
 import { CRITERION_LABELS } from '#shared/schemas/quiz'
-import type { ItemColumn, StudentResult } from './results'
+import type { StudentResult } from '#shared/types/quiz'
+import type { ItemColumn } from './results'
 
 const round2 = (v: number) => Math.round(v * 100) / 100
 const STATUS_WORDS = { 'not-started': 'not started', 'in-progress': 'in progress', 'finished': 'finished' } as const

@@ -2,7 +2,8 @@
 // hundreds of students at most, and every total is computed anyway).
 import type { ResultsQuery } from '#shared/schemas/quiz'
 import { CRITERION_LABELS } from '#shared/schemas/quiz'
-import type { ItemColumn, StudentResult } from './results'
+import type { StudentResult } from '#shared/types/quiz'
+import type { ItemColumn } from './results'
 
 export interface ResultsPageQuery extends Required<Pick<ResultsQuery, 'sort' | 'dir' | 'page' | 'pageSize'>> {
   q?: string

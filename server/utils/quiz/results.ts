@@ -9,49 +9,8 @@ import type { AttemptRow, Database, QuizItemRow, QuizRow, QuizSittingRow } from 
 import type { QuizItemConfig } from './items'
 import { readItemConfig } from './items'
 import { quizStudents } from './access'
-import type { SittingStatus } from '#shared/types/quiz'
+import type { EffectiveMark, ItemCell, StudentResult } from '#shared/types/quiz'
 import { sittingEnd, sittingStatus } from './timing'
-
-export interface EffectiveMark {
-  criterion: QuizCriterion
-  score: number
-  weight: number
-  reason: string
-  /** Set when a tutor changed this mark. */
-  override?: { previousScore: number, reason: string, by: string | null, at: string }
-}
-
-export interface ItemCell {
-  attemptId: number | null
-  attempts: number
-  submittedAt: string | null
-  /** Points earned / possible on the attempt that counts (null = not submitted). */
-  earned: number | null
-  possible: number | null
-  marks: EffectiveMark[]
-  slips: string[]
-  overridden: boolean
-  /** Saved bench state but nothing submitted. */
-  draftOnly: boolean
-}
-
-export interface StudentResult {
-  studentId: number
-  name: string
-  email: string
-  cohortId: number
-  cohortName: string
-  status: SittingStatus
-  startedAt: string | null
-  finishedAt: string | null
-  timeTakenMs: number | null
-  items: Record<number, ItemCell>
-  earned: number
-  possible: number
-  /** 0–1 over every item's possible points (unsubmitted items count as 0). */
-  score: number
-  slips: number
-}
 
 export interface ItemColumn {
   id: number

@@ -2,7 +2,8 @@ import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
 import { resultsCsv } from '~~/server/utils/quiz/csv'
 import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
-import type { ItemColumn, StudentResult } from '~~/server/utils/quiz/results'
+import type { StudentResult } from '#shared/types/quiz'
+import type { ItemColumn } from '~~/server/utils/quiz/results'
 import { effectiveMarks, pointsOf } from '~~/server/utils/quiz/results'
 
 const config = { kind: 'dmr' as const, source: { type: 'engine' as const, templateId: 'normal-standard', title: 'N' }, perStudent: true, mode: 'patient-turns' as const, readScale: false, tolerance: 2, weights: DEFAULT_QUIZ_WEIGHTS }

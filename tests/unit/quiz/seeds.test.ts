@@ -35,7 +35,7 @@ describe('per-student quiz cases', () => {
   })
 
   it('build an exact case from its snapshot, whoever sits it', () => {
-    const spec = { condition: 'hand-authored', gazes: { primary: { torsion: { RE: 7, LE: 0 } } }, response: { reliabilitySd: 1, parallelThreshold: 1 } }
+    const spec = { condition: 'hand-authored' as const, gazes: { primary: { torsion: { RE: 7, LE: 0 } } }, response: { reliabilitySd: 1, parallelThreshold: 1 } }
     const c = config({ source: { type: 'case', id: 3, spec, title: 'Exact' }, perStudent: false })
     const built = buildItemCase(c, 'quiz-seed', 11, 101)
     expect(built.case.gazes.down.torsion).toEqual({ RE: 7, LE: 0 })

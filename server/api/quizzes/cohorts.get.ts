@@ -1,0 +1,11 @@
+import { assignableCohortIds } from '~~/server/utils/quiz/access'
+import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+
+// The cohorts the caller may assign a quiz (or a roster) to: a tutor's own; lecturers and admins all.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...QUIZ_STAFF)
+  const db = await useDb()
+  const ids = await assignableCohortIds(db, user)
+  if (!ids.length) return []
+  return db.selectFrom('cohorts').select(['id', 'name']).where('id', 'in', ids).orderBy('name').execute()
+})
