@@ -147,7 +147,7 @@ export async function seedQuizzes(db: Kysely<Database>, ids: { cohortIds: Map<st
 
     // finished and released two weeks ago
     const week3 = await addQuiz(db, plan, {
-      title: 'Week 3: recording torsion',
+      title: 'Week 3: writing the record',
       instructions: 'Two patients. Measure in primary position at near and write a complete record for each.',
       seed: `demo-${plan.tag}-week-3`,
       opens: now - 14 * DAY,

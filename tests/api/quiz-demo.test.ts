@@ -6,17 +6,18 @@ import { DEMO, signedIn } from '../support/client'
 import { readDb } from '../support/db'
 
 const baseURL = inject('baseURL')
+const DEMO_TITLES = /^(Week 3: writing the record|Week 6: patients who look different|End-of-term assessment)$/
 const dbPath = inject('dbPath')
 
 describe('demo quizzes', () => {
   it('give each cohort a released, an open and a scheduled quiz', async () => {
     for (const [tutorEmail, studentEmail] of [[DEMO.tutor, DEMO.student], [DEMO.tutor2, 'milo.strathearn@cyclodial.test']] as const) {
       const tutor = await signedIn(baseURL, tutorEmail)
-      const demo = (await tutor.get('/api/quizzes')).body.items.filter((q: { title: string }) => /^(Week 3|Week 6|End-of-term)/.test(q.title))
+      const demo = (await tutor.get('/api/quizzes')).body.items.filter((q: { title: string }) => DEMO_TITLES.test(q.title))
       expect(demo.map((q: { phase: string, releasedAt: string | null }) => `${q.phase}${q.releasedAt ? '+released' : ''}`).sort()).toEqual(['closed+released', 'open', 'upcoming'])
 
       const student = await signedIn(baseURL, studentEmail)
-      const mine = (await student.get('/api/quizzes')).body.items.filter((q: { title: string }) => /^(Week 3|Week 6|End-of-term)/.test(q.title))
+      const mine = (await student.get('/api/quizzes')).body.items.filter((q: { title: string }) => DEMO_TITLES.test(q.title))
       expect(mine).toHaveLength(3)
       const released = mine.find((q: { feedbackOpen: boolean }) => q.feedbackOpen)
       const detail = (await student.get(`/api/quizzes/${released.id}`)).body
@@ -27,7 +28,7 @@ describe('demo quizzes', () => {
 
   it('store released attempts through recordAttempt, with a realistic spread of marks and slips', async () => {
     const tutor = await signedIn(baseURL, DEMO.tutor)
-    const week3 = (await tutor.get('/api/quizzes')).body.items.find((q: { title: string }) => q.title === 'Week 3: recording torsion')
+    const week3 = (await tutor.get('/api/quizzes')).body.items.find((q: { title: string }) => q.title === 'Week 3: writing the record')
     const results = (await tutor.get(`/api/quizzes/${week3.id}/results?pageSize=100`)).body
     const sat = results.items.filter((r: { status: string }) => r.status === 'finished')
     expect(sat.length).toBeGreaterThanOrEqual(5)

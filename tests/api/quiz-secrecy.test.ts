@@ -7,7 +7,7 @@ import { cohortIds, minutesFromNow, patientFor, publishQuiz } from '../support/q
 import { caseSecrets, findCaseSecrets } from '../support/secrecy'
 
 const baseURL = inject('baseURL')
-const STUDENTS = [DEMO.student, 'oisin.marrable@cyclodial.test', 'wen.hallowby@cyclodial.test']
+const STUDENTS = [DEMO.student, 'oisin.marrable@cyclodial.test', 'adaeze.quillon@cyclodial.test']
 const TEMPLATES = ['so-palsy-left-challenging', 'bilateral-so-palsy-standard', 'io-palsy-right-standard', 'skew-deviation-standard', 'long-standing-so-palsy-challenging', 'suppression-standard', 'ted-ir-restriction-challenging', 'normal-standard']
 const OWN_INPUT = [/(^|\.)draft\.record$/, /(^|\.)attempt\.record$/, /(^|\.)attempt\.interpretation(\.|$)/]
 const QUIZ_COUNTS = [/(^|\.)(itemId|quizId|position|attempts|attemptsLeft|attemptsAllowed|itemCount|timeLimitMinutes)$/]
