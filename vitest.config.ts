@@ -26,6 +26,10 @@ export default defineConfig({
           name: 'components',
           include: ['tests/components/**/*.test.ts'],
           environment: 'nuxt',
+          // Booting the Nuxt environment can take well over vitest's 10 s default
+          // on a busy 2-core CI machine; these are start-up limits, not assertions.
+          testTimeout: 30_000,
+          hookTimeout: 120_000,
         },
       }),
       {
