@@ -207,14 +207,30 @@ test.describe('the bench', () => {
     await levelLine(page, 'RE', (sign, size) => page.keyboard.press(size >= 4 ? (sign > 0 ? 'Shift+ArrowUp' : 'Shift+ArrowDown') : sign > 0 ? 'ArrowUp' : 'ArrowDown'))
     const t = Math.round((await reading(re)) - 90)
     await page.getByLabel('Your record').fill(`DMR, near, primary position: RE ${t}° incyclotorsion, LE no torsion`)
+    // the interpretation step, from the cover test on screen: right eye higher, worse in left
+    // gaze and on right head tilt → right superior oblique (Parks three-step test, domain.md §7)
+    const step = async (legend: string, option: string) => {
+      const group = page.getByRole('group', { name: legend })
+      await group.getByText(option, { exact: true }).click()
+      await expect(group.getByRole('radio', { name: option, exact: true })).toBeChecked()
+    }
+    await step('1. Higher eye in primary position', 'Right eye')
+    await step('2. Worse in gaze to the', 'Left')
+    await step('3. Worse on head tilt to the', 'Right')
+    await page.getByLabel('Palsied muscle').selectOption('RSO')
     const submitted = page.waitForResponse(r => r.url().includes('/attempts') && r.request().method() === 'POST')
     await page.getByRole('button', { name: 'Submit record' }).click()
     const result = await (await submitted).json()
+    expect(JSON.parse((await submitted).request().postData()!).interpretation).toEqual({ higherEye: 'RE', worseGaze: 'left', worseTilt: 'right', muscle: 'RSO' })
     const codes = result.slips.map((s: { code: SlipCode }) => s.code)
     expect(codes).toContain('direction-reversed')
     const shown = page.getByTestId('slips')
     for (const code of codes as SlipCode[]) await expect(shown).toContainText(SLIP_INFO[code].title)
     await expect(page.getByTestId('score')).toHaveText(`${Math.round(result.score * 100)}%`)
+    // the interpretation is graded on its own, by the server
+    expect(result.interpretation.answer).toBe('RSO')
+    expect(result.interpretation.score).toBe(1)
+    await expect(page.getByTestId('interpretation-score')).toHaveText('100%')
   })
 
   test('autosave: a reload keeps the dials, the prisms and the record', async ({ page }) => {
@@ -241,14 +257,30 @@ test.describe('the bench', () => {
     await signIn(page, STUDENT)
     await openCase(page, 'patient-turns')
     await expect(page.getByRole('slider')).toHaveCount(0)
+    const answered = page.waitForResponse(r => r.url().endsWith('/turns') && r.request().method() === 'POST')
     await page.getByRole('button', { name: 'Ask the patient to set the rods' }).click()
+    const turn = await (await answered).json()
     await expect(page.getByTestId('active-trial')).toContainText('Trial 1')
-    await expect(page.getByTestId('patient-words')).not.toContainText('waits for you to ask')
+    await expect(page.getByTestId('patient-words')).toContainText(turn.words.text)
+    // no figure on screen: the learner reads the engraved scale
+    await expect(page.getByTestId('readout-RE')).toHaveText(/read the scale/)
     await page.screenshot({ path: 'test-results/screenshots/bench-tablet-patient-turns.png', fullPage: true })
     // the frame and the patient's view sit one above the other without overlapping
     const frame = await page.getByRole('figure', { name: 'Trial frame' }).boundingBox()
     const view = await page.getByRole('figure', { name: 'Patient\'s view' }).boundingBox()
     expect(frame!.y + frame!.height).toBeLessThanOrEqual(view!.y)
+
+    // this test reads the scale from where the patient left the rods (the browser holds that)
+    await page.getByLabel('Your reading, right-eye scale (°)').fill(String(turn.readings.RE))
+    await page.getByLabel('Your reading, left-eye scale (°)').fill(String(turn.readings.LE))
+    await page.getByLabel('Your record').fill(recordFrom(turn.readings))
+    const submitted = page.waitForResponse(r => r.url().includes('/attempts') && r.request().method() === 'POST')
+    await page.getByRole('button', { name: 'Submit record' }).click()
+    const sent = JSON.parse((await submitted).request().postData()!)
+    expect(sent).toMatchObject({ trial: turn.trial, readings: turn.readings })
+    const result = await (await submitted).json()
+    await expect(page.locator('tr[data-criterion="measurement"]')).toContainText('2/2')
+    await expect(page.getByTestId('score')).toHaveText(`${Math.round(result.score * 100)}%`)
   })
 
   test('the picker opens a case and the history lists the attempt', async ({ page }) => {
@@ -256,7 +288,8 @@ test.describe('the bench', () => {
     await page.getByRole('link', { name: 'Practice', exact: true }).first().click()
     await expect(page).toHaveURL(/\/practice$/)
     await page.getByLabel('Case', { exact: true }).selectOption({ label: 'Any case — Cyclodial chooses, the condition stays hidden' })
-    await page.getByRole('radio', { name: 'Challenging' }).check({ force: true })
+    await page.getByRole('group', { name: 'Difficulty' }).getByText('Challenging', { exact: true }).click()
+    await expect(page.getByRole('radio', { name: 'Challenging' })).toBeChecked()
     const api = collectApi(page)
     await page.getByRole('button', { name: 'Open the bench' }).click()
     await expect(page).toHaveURL(/\/practice\/\d+$/)
