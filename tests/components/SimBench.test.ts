@@ -66,6 +66,21 @@ describe('SimBench in learner-turns', () => {
     expect(body.trial).toBeUndefined()
   })
 
+  it('sends a change still waiting when the bench goes away, with its own case key', async () => {
+    fakeLayout(640)
+    const id = benchId()
+    const onChange = vi.fn()
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, autosaveMs: 60_000, caseKey: 41, onChange } })
+    useBenchStore(id).setRod('LE', 85)
+    await nextTick()
+    expect(onChange).not.toHaveBeenCalled()
+    wrapper.unmount()
+    expect(onChange).toHaveBeenCalledTimes(1)
+    const [draft, key] = onChange.mock.calls[0]! as [BenchDraft, number]
+    expect(draft.readings).toEqual({ RE: 90, LE: 85 })
+    expect(key).toBe(41)
+  })
+
   it('shows the marks and slips the engine gives, and locks the bench', async () => {
     fakeLayout(640)
     const id = benchId()

@@ -126,7 +126,7 @@ test.describe('the bench', () => {
   test('with the mouse: drag until parallel, record, full marks', async ({ page }) => {
     await signIn(page, STUDENT)
     const api = collectApi(page)
-    await openCase(page)
+    const caseId = await openCase(page)
     const re = page.getByRole('slider', { name: 'Right eye dial' })
     const le = page.getByRole('slider', { name: 'Left eye dial' })
     await expect(re).toHaveAttribute('aria-valuenow', '90')
@@ -156,6 +156,15 @@ test.describe('the bench', () => {
     await expectFullMarks(page, await submitted)
     await expect(page.getByTestId('eye-image-sketch')).toBeVisible()
     await page.getByTestId('feedback').screenshot({ path: 'test-results/screenshots/bench-feedback.png' })
+
+    // "another like this": a new case from the same template, ready to turn
+    const title = await page.getByRole('heading', { level: 1 }).innerText()
+    await page.getByRole('button', { name: 'Another like this' }).click()
+    await expect(page).not.toHaveURL(new RegExp(`/practice/${caseId}$`))
+    await expect(page).toHaveURL(/\/practice\/\d+$/)
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText(title)
+    await expect(page.getByRole('slider', { name: 'Right eye dial' })).toHaveAttribute('aria-valuenow', '90')
+    await expect(page.getByTestId('feedback')).toHaveCount(0)
   })
 
   test('with the keyboard alone: the same case, full marks', async ({ page }) => {
