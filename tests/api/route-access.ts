@@ -39,6 +39,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/casebook/cases': ['tutor', 'lecturer'],
   'PATCH /api/casebook/cases/[id]': ['tutor', 'lecturer'],
   'POST /api/casebook/preview': ['tutor', 'lecturer'],
+  'POST /api/casebook/preview/turns': ['tutor', 'lecturer'],
   'GET /api/quizzes': 'signed-in',
   'POST /api/quizzes': ['tutor', 'lecturer', 'admin'],
   'GET /api/quizzes/cohorts': ['tutor', 'lecturer', 'admin'],

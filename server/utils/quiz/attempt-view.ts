@@ -50,7 +50,7 @@ export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserD
     turn: turn as PatientTurnsResult | null,
     case: { id: caseRow.id, mode: caseRow.mode, readScale: caseRow.read_scale === 1, presentation: toPresentation(regenerateCase(caseRow), caseRow.mode) },
     feedbackOpen: open,
-    result: open ? await attemptFeedback(db, attempt, config, quiz.interpretation === 1) : null,
+    result: open ? await attemptFeedback(db, attempt, config, quiz.interpretation === 1, staff ? 'staff' : 'student') : null,
     overrides: overrides.map(o => ({ criterion: o.criterion, previousScore: o.previous_score, score: o.score, reason: o.reason, by: o.actorName, at: o.created_at })),
   }
 }

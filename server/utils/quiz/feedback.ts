@@ -8,7 +8,7 @@ import { attemptResultFromRow } from '../attempts'
 import type { QuizItemConfig } from './items'
 import { effectiveMarks, loadOverrides, pointsOf } from './results'
 
-export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean): Promise<StudentItemFeedback> {
+export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean, audience: 'student' | 'staff' = 'student'): Promise<StudentItemFeedback> {
   const overrides = (await loadOverrides(db, attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
   const marks = effectiveMarks(attempt, config, interpretationOn, overrides)
   const points = pointsOf(marks)
@@ -19,7 +19,7 @@ export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow,
       criterion: m.criterion,
       score: m.score,
       weight: m.weight,
-      reason: m.override ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
+      reason: m.override && audience === 'student' ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
       overridden: !!m.override,
     })),
     score: points.possible ? points.earned / points.possible : 0,

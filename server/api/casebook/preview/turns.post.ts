@@ -1,0 +1,24 @@
+import { z } from 'zod'
+import { caseSourceSchema } from '#shared/schemas/casebook'
+import { turnRequestSchema } from '#shared/schemas/practice'
+import { seedSchema } from '#shared/engine/schemas'
+import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
+import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
+import { patientSetsRods } from '~~/server/utils/engine/patient'
+
+const previewTurnBody = turnRequestSchema.extend({
+  source: caseSourceSchema,
+  seed: seedSchema,
+  trial: z.number({ error: 'The trial must be a number.' }).int().min(1, { error: 'Trials start at 1.' }).max(1000),
+})
+
+// Patient-turns in a casebook preview: the same patient (source + seed) turns the
+// rods; nothing is stored, since a preview is not an attempt.
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...CASEBOOK_ROLES)
+  const body = await readBodyAs(event, previewTurnBody)
+  const db = await useDb()
+  const { snapshot } = await snapshotSource(db, user, body.source)
+  const built = caseFromSnapshot(snapshot, body.seed)
+  return patientSetsRods(built.case, { gaze: body.gaze, distance: body.distance, prisms: body.prisms ?? [], lights: body.lights ?? 'dim', trial: body.trial })
+})
