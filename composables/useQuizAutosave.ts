@@ -1,33 +1,40 @@
-// Autosave for a quiz item: every change goes to the server; a save that fails
-// for want of a connection (or while the server restarts) is kept and retried,
-// so nothing the student did is lost. A refusal (time up) stops saving.
+// Autosave for quiz items: every change goes to the server; a save that fails for
+// want of a connection (or while the server restarts) is kept and retried, so
+// nothing the student did is lost. Saves are queued per draft URL, so a change the
+// bench sends as it unmounts still reaches its own item. A refusal (time up) stops
+// saving for that item.
 import { useEventListener } from '@vueuse/core'
 import type { BenchDraft } from '#shared/bench/contract'
 
 export type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved', at: string } | { kind: 'retrying', message: string } | { kind: 'refused', message: string }
 
-export function useQuizAutosave(url: () => string, onRefused: (message: string) => void) {
+export function useQuizAutosave(onRefused: (message: string) => void) {
   const state = ref<SaveState>({ kind: 'idle' })
-  let pending: BenchDraft | null = null
+  const pending = new Map<string, BenchDraft>()
   let running = false
   let timer: ReturnType<typeof setTimeout> | undefined
 
-  async function flush() {
-    if (running || !pending) return
+  async function flush(): Promise<void> {
+    if (running) return
+    const next = pending.entries().next()
+    if (next.done) return
+    const [url, draft] = next.value
     running = true
-    const draft = pending
     state.value = { kind: 'saving' }
+    let again = false
     try {
-      const r = await $fetch<{ savedAt: string }>(url(), { method: 'PUT', body: draft })
-      if (pending === draft) pending = null
+      const r = await $fetch<{ savedAt: string }>(url, { method: 'PUT', body: draft })
+      if (pending.get(url) === draft) pending.delete(url)
       state.value = { kind: 'saved', at: r.savedAt }
+      again = pending.size > 0
     }
     catch (e) {
       const p = apiProblem(e)
       if (p.status && p.status >= 400 && p.status < 500) {
-        pending = null
+        pending.delete(url)
         state.value = { kind: 'refused', message: p.message }
         onRefused(p.message)
+        again = pending.size > 0
       }
       else {
         state.value = { kind: 'retrying', message: 'Not saved yet: the server cannot be reached. Retrying…' }
@@ -37,11 +44,11 @@ export function useQuizAutosave(url: () => string, onRefused: (message: string) 
     finally {
       running = false
     }
-    if (pending && state.value.kind === 'saved') await flush()
+    if (again) await flush()
   }
 
-  function save(draft: BenchDraft) {
-    pending = draft
+  function save(url: string, draft: BenchDraft) {
+    pending.set(url, draft)
     clearTimeout(timer)
     void flush()
   }
