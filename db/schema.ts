@@ -309,6 +309,30 @@ export interface QuizMarkOverridesTable {
   reason: string
   actor_id: number | null
   created_at: Timestamp
+/** A targeted practice set sent from the slip-patterns page (cases in `cases.practice_set_id`). */
+export interface PracticeSetsTable {
+  id: Generated<number>
+  created_by: number | null
+  /** The cohort it was sent to (scope 'cohort') or the learners' cohort (scope 'learner'). */
+  cohort_id: number | null
+  scope: 'learner' | 'cohort'
+  /** A learner-pattern code (shared/review/patterns.ts) the cases exercise. */
+  focus: string
+  eye: 'RE' | 'LE' | null
+  title: string
+  note: string | null
+  /** Cases per learner. */
+  size: number
+  mode: 'learner-turns' | 'patient-turns'
+  created_at: Timestamp
+}
+
+/** Who received a practice set, and when (the before/after split of the slip rate). */
+export interface PracticeSetLearnersTable {
+  set_id: number
+  learner_id: number
+  sent_at: Timestamp
+  mail_job_id: number | null
 }
 
 export interface Database {
@@ -332,6 +356,8 @@ export interface Database {
   quiz_cohorts: QuizCohortsTable
   quiz_sittings: QuizSittingsTable
   quiz_mark_overrides: QuizMarkOverridesTable
+  practice_sets: PracticeSetsTable
+  practice_set_learners: PracticeSetLearnersTable
 }
 
 export type User = Selectable<UsersTable>

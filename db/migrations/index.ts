@@ -4,12 +4,14 @@
 import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_init'
 import * as m0002 from './0002_practice'
+import * as m0004 from './0004_review'
 import * as m0006 from './0006_practice_extra'
 import * as m0003 from './0003_quizzes'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
   '0002_practice': m0002,
+  '0004_review': m0004,
   '0006_practice_extra': m0006,
   '0003_quizzes': m0003,
 }

@@ -63,4 +63,17 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/quizzes/[id]/release': ['tutor', 'lecturer', 'admin'],
   'POST /api/roster/preview': ['tutor', 'lecturer', 'admin'],
   'POST /api/roster/import': ['tutor', 'lecturer', 'admin'],
+  // slip patterns (issue 6): lecturers all cohorts, tutors their own
+  'GET /api/review/options': ['tutor', 'lecturer'],
+  'GET /api/review/slips': ['tutor', 'lecturer'],
+  'GET /api/review/amounts': ['tutor', 'lecturer'],
+  'GET /api/review/trend': ['tutor', 'lecturer'],
+  'GET /api/review/learners': ['tutor', 'lecturer'],
+  'GET /api/review/attempts': ['tutor', 'lecturer'],
+  'GET /api/review/attempts/[id]': ['tutor', 'lecturer'],
+  'GET /api/review/export.csv': ['tutor', 'lecturer'],
+  'GET /api/review/practice-sets': ['tutor', 'lecturer'],
+  'POST /api/review/practice-sets': ['tutor', 'lecturer'],
+  'GET /api/review/practice-sets/[id]': ['tutor', 'lecturer'],
+  'GET /api/practice-sets': ['student'],
 }

@@ -1,0 +1,16 @@
+import { idParam } from '#shared/schemas/admin'
+import { staffReplay } from '~~/server/utils/review/replay'
+import { REVIEW_ROLES } from '~~/server/utils/review/request'
+import { reviewScopeFor } from '~~/server/utils/review/scope'
+
+/** One attempt's bench state and result, for the read-only replay (tutors: their cohorts only). */
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...REVIEW_ROLES)
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const scope = await reviewScopeFor(db, user)
+  // lecturers see every attempt, including any outside a cohort
+  const replay = await staffReplay(db, id, user.role === 'lecturer' ? { ...scope, cohortIds: null } : scope)
+  if (!replay) notFound('That attempt')
+  return replay
+})

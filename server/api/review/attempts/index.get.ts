@@ -1,0 +1,12 @@
+import { reviewAttemptsQuery } from '#shared/schemas/review'
+import type { ReviewAttemptsResponse } from '#shared/types/review'
+import { drillAttempts } from '~~/server/utils/review/drill'
+import { reviewRequest } from '~~/server/utils/review/request'
+import { learnerInScope } from '~~/server/utils/review/scope'
+
+/** The attempts behind a number on the review page. */
+export default defineEventHandler(async (event): Promise<ReviewAttemptsResponse> => {
+  const { query, db, scope } = await reviewRequest(event, reviewAttemptsQuery)
+  if (query.learnerId && !(await learnerInScope(db, scope, query.learnerId))) notFound('That learner')
+  return drillAttempts(db, query, scope)
+})

@@ -1,0 +1,11 @@
+import { reviewLearnersQuery } from '#shared/schemas/review'
+import type { LearnersResponse } from '#shared/types/review'
+import { needsHelp } from '~~/server/utils/review/learners'
+import { reviewRequest } from '~~/server/utils/review/request'
+
+/** The ranked "needs help" list: learners showing slip patterns, with the evidence. */
+export default defineEventHandler(async (event): Promise<LearnersResponse> => {
+  const { query, db, scope } = await reviewRequest(event, reviewLearnersQuery)
+  const { limit, ...filters } = query
+  return { filters, ...(await needsHelp(db, filters, scope, limit)) }
+})

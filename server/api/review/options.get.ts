@@ -1,0 +1,19 @@
+import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
+import { CONDITIONS } from '#shared/engine/caseSpec'
+import { REVIEW_ROLES } from '~~/server/utils/review/request'
+import { visibleCohorts } from '~~/server/utils/review/scope'
+
+/** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...REVIEW_ROLES)
+  const db = await useDb()
+  const cohorts = await visibleCohorts(db, user)
+  const templates = [...new Map(CASE_TEMPLATES.map((t) => {
+    const base = t.id.replace(/-(standard|challenging)$/, '')
+    return [base, { id: base, label: t.label.replace(/\s*\((standard|challenging)\)$/, '') }] as const
+  })).values()]
+  let quizQ = db.selectFrom('attempts').select('quiz_id').distinct().where('quiz_id', 'is not', null)
+  if (user.role !== 'lecturer') quizQ = quizQ.where('cohort_id', 'in', cohorts.length ? cohorts.map(c => c.id) : [-1])
+  const quizzes = (await quizQ.orderBy('quiz_id').execute()).map(r => ({ id: r.quiz_id!, title: `Quiz ${r.quiz_id}` }))
+  return { cohorts, templates, conditions: CONDITIONS.filter(c => c !== 'hand-authored'), quizzes, role: user.role }
+})

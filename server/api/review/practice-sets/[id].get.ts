@@ -1,0 +1,44 @@
+import { idParam } from '#shared/schemas/admin'
+import { SLIP_INFO } from '#shared/engine/slips'
+import type { Eye } from '#shared/engine/types'
+import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
+import { setProgress } from '~~/server/utils/review/practiceSets'
+import { REVIEW_ROLES } from '~~/server/utils/review/request'
+import { visibleSets } from '~~/server/utils/review/setAccess'
+
+/** One practice set and whether the focus slip became rarer after it was sent. */
+export default defineEventHandler(async (event) => {
+  const user = await requireRole(event, ...REVIEW_ROLES)
+  const { id } = paramsAs(event, idParam)
+  const db = await useDb()
+  const set = await visibleSets(db, db.selectFrom('practice_sets')
+    .leftJoin('users', 'users.id', 'practice_sets.created_by')
+    .leftJoin('cohorts', 'cohorts.id', 'practice_sets.cohort_id')
+    .selectAll('practice_sets').select(['users.name as sender', 'cohorts.name as cohort'])
+    .where('practice_sets.id', '=', id), user).executeTakeFirst()
+  if (!set || !isPatternCode(set.focus)) notFound('That practice set')
+  const progress = await setProgress(db, { id: set.id, focus: set.focus, eye: set.eye as Eye | null })
+  const cases = await db.selectFrom('cases').select(['template_id', 'condition', 'mode']).where('practice_set_id', '=', set.id)
+    .orderBy('id').execute()
+  const conditions = Object.entries(cases.reduce<Record<string, number>>((acc, c) => ({ ...acc, [c.condition]: (acc[c.condition] ?? 0) + 1 }), {}))
+    .map(([condition, n]) => ({ condition, cases: n }))
+  return {
+    id: set.id,
+    title: set.title,
+    focus: set.focus,
+    focusTitle: PATTERN_INFO[set.focus].title,
+    eye: set.eye,
+    scope: set.scope,
+    size: set.size,
+    mode: set.mode,
+    note: set.note,
+    createdAt: set.created_at,
+    sender: set.sender,
+    cohort: set.cohort,
+    slips: progress.slips.map(code => ({ code, title: SLIP_INFO[code].title })),
+    conditions,
+    before: progress.before,
+    after: progress.after,
+    learners: progress.learners,
+  }
+})

@@ -1,0 +1,13 @@
+import { SLIP_CODES } from '#shared/engine/slips'
+import { reviewFilterQuery } from '#shared/schemas/review'
+import type { TrendResponse } from '#shared/types/review'
+import { weeklyTrend } from '~~/server/utils/review/aggregates'
+import { reviewRequest } from '~~/server/utils/review/request'
+
+/** Attempts and slips per week. */
+export default defineEventHandler(async (event): Promise<TrendResponse> => {
+  const { query, db, scope } = await reviewRequest(event, reviewFilterQuery)
+  const weeks = await weeklyTrend(db, query, scope)
+  const codes = SLIP_CODES.filter(c => weeks.some(w => w.slips[c]))
+  return { filters: query, weeks, codes }
+})

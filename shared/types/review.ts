@@ -1,0 +1,77 @@
+// Response shapes of the slip-patterns review routes (server/api/review/**).
+import type { SlipCode } from '#shared/engine/slips'
+import type { Eye } from '#shared/engine/types'
+import type { PatternCode } from '#shared/review/patterns'
+import type { AmountBand, ReviewFilters } from '#shared/schemas/review'
+
+export interface ReviewTotals {
+  attempts: number
+  learners: number
+}
+
+export interface SlipCount {
+  code: SlipCode
+  title: string
+  /** Slips recorded (an attempt that slips in both eyes counts twice). */
+  count: number
+  /** Slips per 100 attempts in the view. */
+  per100: number
+}
+
+/** recorded direction → attempts, for one true direction of one eye. */
+export type DirectionRow = Record<'excyclo' | 'incyclo' | 'none' | 'missing', number>
+export type DirectionTable = Record<Eye, Record<'excyclo' | 'incyclo', DirectionRow>>
+
+export interface SlipsResponse {
+  filters: ReviewFilters
+  totals: ReviewTotals
+  slips: SlipCount[]
+  directions: DirectionTable
+}
+
+export interface AmountBandCount { band: AmountBand, label: string, RE: number, LE: number }
+export interface AmountsResponse { filters: ReviewFilters, bands: AmountBandCount[], recorded: Record<Eye, number> }
+
+export interface TrendWeek {
+  /** Monday of the week, YYYY-MM-DD. */
+  week: string
+  attempts: number
+  /** Slips of each code that week. */
+  slips: Partial<Record<SlipCode, number>>
+}
+export interface TrendResponse { filters: ReviewFilters, weeks: TrendWeek[], codes: SlipCode[] }
+
+export interface PatternEvidence {
+  code: PatternCode
+  title: string
+  eye?: Eye
+  count: number
+  of: number
+  /** The most recent attempts that show it. */
+  examples: number[]
+}
+
+export interface LearnerRow {
+  learner: { id: number, name: string, cohort: string | null }
+  attempts: number
+  slipAttempts: number
+  reversed: { reOnly: number, leOnly: number, both: number }
+  patterns: PatternEvidence[]
+  score: number
+}
+export interface LearnersResponse { filters: ReviewFilters, items: LearnerRow[], total: number, learnersSeen: number }
+
+export interface ReviewAttemptRow {
+  id: number
+  learner: { id: number, name: string }
+  cohort: string | null
+  kind: 'practice' | 'quiz'
+  quizId: number | null
+  templateId: string | null
+  condition: string
+  submittedAt: string
+  score: number
+  record: string
+  slips: { code: SlipCode, eye?: Eye }[]
+}
+export interface ReviewAttemptsResponse { items: ReviewAttemptRow[], total: number, page: number, pageSize: number }
