@@ -44,6 +44,18 @@ export default defineConfig({
           hookTimeout: 120_000,
         },
       },
+      {
+        // benchmarks (npm run bench:*): never part of npm test
+        resolve: { alias },
+        test: {
+          name: 'bench',
+          include: ['tests/bench/**/*.run.ts'],
+          environment: 'node',
+          fileParallelism: false,
+          testTimeout: 900_000,
+          hookTimeout: 120_000,
+        },
+      },
     ],
   },
 })

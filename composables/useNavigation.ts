@@ -15,12 +15,14 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/casebook', label: 'Casebook' },
     { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
+    { to: '/review', label: 'Slip patterns' },
   ],
   lecturer: [
     { to: '/lecturer', label: 'Home' },
     { to: '/casebook', label: 'Casebook' },
     { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
+    { to: '/review', label: 'Slip patterns' },
   ],
   admin: [
     { to: '/admin', label: 'Overview' },

@@ -6,7 +6,8 @@ import type { AmountBand, ReviewFilters } from '#shared/schemas/review'
 
 export interface ReviewTotals {
   attempts: number
-  learners: number
+  /** Only where the route counts them (GET /api/review/learners gives learnersSeen). */
+  learners?: number
 }
 
 export interface SlipCount {

@@ -1,98 +1,132 @@
-// The review page's aggregates, computed in SQL. Each is one pass over a
-// covering index (migration 0004): conditional sums instead of GROUP BY where
-// the groups are known in advance, so SQLite never sorts the filtered rows.
+// The review page's aggregates, computed in SQL. Each query walks one covering
+// index of migration 0004 and GROUPs BY cohort first, then by what it counts, in
+// the index's own order, so SQLite groups as it reads and never sorts the
+// filtered rows; the few hundred groups are then folded across cohorts here.
 import { sql } from 'kysely'
-import type { Kysely, RawBuilder } from 'kysely'
+import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
-import { SLIP_CODES, SLIP_INFO } from '#shared/engine/slips'
+import { SLIP_CODES, SLIP_INFO, isSlipCode } from '#shared/engine/slips'
 import type { SlipCode } from '#shared/engine/slips'
 import { EYES } from '#shared/engine/types'
 import type { Eye } from '#shared/engine/types'
-import { AMOUNT_BAND_EDGES, weekOf } from '#shared/review/bands'
+import { AMOUNT_BAND_EDGES, bandOf, weekOf } from '#shared/review/bands'
 import type { BandEdge } from '#shared/review/bands'
 import type { ReviewFilters } from '#shared/schemas/review'
 import type { AmountBandCount, DirectionTable, ReviewTotals, SlipCount, TrendWeek } from '#shared/types/review'
 import { applyReviewFilters } from './filters'
 import type { ReviewScope } from './scope'
 
-const eyeCol = (eye: Eye, what: 'true_direction' | 'recorded_direction' | 'amount_error') => sql.ref(`attempts.${eye.toLowerCase()}_${what}`)
-const count = (cond: RawBuilder<unknown>) => sql<number>`coalesce(sum(case when ${cond} then 1 else 0 end), 0)`
+/** Attempts per learner in the view (also gives the totals), and the cohorts each learner's attempts were in. */
+export async function attemptsPerLearner(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, number>> {
+  const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempts.cohort_id', 'attempts.learner_id']).execute()
+  const out = new Map<number, number>()
+  for (const r of rows) {
+    out.set(r.learner_id, (out.get(r.learner_id) ?? 0) + Number(r.n))
+    if (cohortsOf && r.cohort_id !== null) {
+      const set = cohortsOf.get(r.learner_id) ?? new Set<number>()
+      set.add(r.cohort_id)
+      cohortsOf.set(r.learner_id, set)
+    }
+  }
+  return out
+}
 
 export async function reviewTotals(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<ReviewTotals> {
-  const row = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
-    .select(eb => [eb.fn.countAll<number>().as('attempts'), eb.fn.count<number>('attempts.learner_id').distinct().as('learners')])
-    .executeTakeFirstOrThrow()
-  return { attempts: Number(row.attempts), learners: Number(row.learners) }
+  const per = await attemptsPerLearner(db, f, scope)
+  let attempts = 0
+  for (const n of per.values()) attempts += n
+  return { attempts, learners: per.size }
 }
 
 export async function slipCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, attempts: number): Promise<SlipCount[]> {
-  const row = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
-    .select(SLIP_CODES.map(code => count(sql`${sql.ref('attempt_slips.code')} = ${code}`).as(code)))
-    .executeTakeFirstOrThrow() as Record<SlipCode, number>
+  const rows = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
+    .select(eb => ['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye', eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye']).execute()
+  const counts = new Map<SlipCode, number>()
+  for (const r of rows) if (isSlipCode(r.code)) counts.set(r.code, (counts.get(r.code) ?? 0) + Number(r.n))
   return SLIP_CODES
-    .map(code => ({ code, title: SLIP_INFO[code].title, count: Number(row[code] ?? 0), per100: attempts ? Math.round(1000 * Number(row[code] ?? 0) / attempts) / 10 : 0 }))
+    .map((code) => {
+      const count = counts.get(code) ?? 0
+      return { code, title: SLIP_INFO[code].title, count, per100: attempts ? Math.round(1000 * count / attempts) / 10 : 0 }
+    })
     .sort((a, b) => b.count - a.count || SLIP_CODES.indexOf(a.code) - SLIP_CODES.indexOf(b.code))
 }
 
 const TRUE_DIRS = ['excyclo', 'incyclo'] as const
-const RECORDED = ['excyclo', 'incyclo', 'none', 'missing'] as const
 
-function recordedIs(eye: Eye, r: (typeof RECORDED)[number]): RawBuilder<unknown> {
-  return r === 'missing' ? sql`${eyeCol(eye, 'recorded_direction')} is null` : sql`${eyeCol(eye, 'recorded_direction')} = ${r}`
+function emptyDirections(): DirectionTable {
+  const row = () => ({ excyclo: 0, incyclo: 0, none: 0, missing: 0 })
+  return { RE: { excyclo: row(), incyclo: row() }, LE: { excyclo: row(), incyclo: row() } }
 }
 
-/** True excyclo/incyclo × recorded direction, per eye (attempts whose eye had a direction to record). */
-export async function directionTable(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<DirectionTable> {
+/**
+ * True excyclo/incyclo × recorded direction, per eye (attempts whose eye had a
+ * direction to record), and the number of attempts in the view (every group).
+ */
+export async function directionTable(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<DirectionTable & { attempts: number }> {
+  const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+    .select(eb => ['attempts.cohort_id', 'attempts.re_true_direction', 'attempts.re_recorded_direction', 'attempts.le_true_direction', 'attempts.le_recorded_direction', eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempts.cohort_id', 'attempts.re_true_direction', 'attempts.re_recorded_direction', 'attempts.le_true_direction', 'attempts.le_recorded_direction'])
+    .execute()
+  const table = emptyDirections()
   const eyes = f.eye ? [f.eye] : EYES
-  const selections = eyes.flatMap(eye => TRUE_DIRS.flatMap(t => RECORDED.map(r =>
-    count(sql`${eyeCol(eye, 'true_direction')} = ${t} and ${recordedIs(eye, r)}`).as(`${eye}_${t}_${r}`))))
-  const row = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
-    .select(selections).executeTakeFirstOrThrow() as Record<string, number>
-  const table = {} as DirectionTable
-  for (const eye of EYES) {
-    table[eye] = {
-      excyclo: { excyclo: 0, incyclo: 0, none: 0, missing: 0 },
-      incyclo: { excyclo: 0, incyclo: 0, none: 0, missing: 0 },
+  let attempts = 0
+  for (const r of rows) {
+    attempts += Number(r.n)
+    for (const eye of eyes) {
+      const t = eye === 'RE' ? r.re_true_direction : r.le_true_direction
+      const rec = eye === 'RE' ? r.re_recorded_direction : r.le_recorded_direction
+      if (!(TRUE_DIRS as readonly (string | null)[]).includes(t)) continue
+      const cell = rec === null ? 'missing' : rec === 'excyclo' || rec === 'incyclo' || rec === 'none' ? rec : null
+      if (cell) table[eye][t as 'excyclo' | 'incyclo'][cell] += Number(r.n)
     }
-    if (!eyes.includes(eye)) continue
-    for (const t of TRUE_DIRS) for (const r of RECORDED) table[eye][t][r] = Number(row[`${eye}_${t}_${r}`] ?? 0)
   }
-  return table
+  return { ...table, attempts }
 }
 
-/** The SQL condition for one amount band on one eye's signed error. */
-export function bandCondition(eye: Eye, b: BandEdge): RawBuilder<unknown> {
-  const e = eyeCol(eye, 'amount_error')
-  const parts: RawBuilder<unknown>[] = [sql`${e} is not null`]
+/** The SQL condition for one amount band on one eye's signed error (drill-down). */
+export function bandCondition(eye: Eye, b: BandEdge) {
+  const e = sql.ref(`attempts.${eye.toLowerCase()}_amount_error`)
+  const parts = [sql`${e} is not null`]
   if (b.min !== null) parts.push(b.minInclusive ? sql`${e} >= ${b.min}` : sql`${e} > ${b.min}`)
   if (b.max !== null) parts.push(b.maxInclusive ? sql`${e} <= ${b.max}` : sql`${e} < ${b.max}`)
-  return sql.join(parts, sql` and `)
+  return sql<boolean>`(${sql.join(parts, sql` and `)})`
 }
 
 export async function amountBands(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<{ bands: AmountBandCount[], recorded: Record<Eye, number> }> {
-  const eyes = f.eye ? [f.eye] : EYES
-  const selections = eyes.flatMap(eye => [
-    ...AMOUNT_BAND_EDGES.map(b => count(bandCondition(eye, b)).as(`${eye}_${b.band}`)),
-    count(sql`${eyeCol(eye, 'amount_error')} is not null`).as(`${eye}_recorded`),
-  ])
-  const row = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
-    .select(selections).executeTakeFirstOrThrow() as Record<string, number>
-  const n = (k: string) => Number(row[k] ?? 0)
+  const counts: Record<Eye, Map<string, number>> = { RE: new Map(), LE: new Map() }
+  const recorded: Record<Eye, number> = { RE: 0, LE: 0 }
+  for (const eye of f.eye ? [f.eye] : EYES) {
+    const col = eye === 'RE' ? 'attempts.re_amount_error' as const : 'attempts.le_amount_error' as const
+    const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+      .select(eb => ['attempts.cohort_id', `${col} as error`, eb.fn.countAll<number>().as('n')])
+      .where(col, 'is not', null)
+      .groupBy(['attempts.cohort_id', col]).execute()
+    for (const r of rows) {
+      const band = bandOf(Number(r.error))
+      counts[eye].set(band, (counts[eye].get(band) ?? 0) + Number(r.n))
+      recorded[eye] += Number(r.n)
+    }
+  }
   return {
-    bands: AMOUNT_BAND_EDGES.map(b => ({ band: b.band, label: b.label, RE: n(`RE_${b.band}`), LE: n(`LE_${b.band}`) })),
-    recorded: { RE: n('RE_recorded'), LE: n('LE_recorded') },
+    bands: AMOUNT_BAND_EDGES.map(b => ({ band: b.band, label: b.label, RE: counts.RE.get(b.band) ?? 0, LE: counts.LE.get(b.band) ?? 0 })),
+    recorded,
   }
 }
 
 /** Attempts and slips per week (Monday first). Grouped by day in SQL, folded into weeks here. */
 export async function weeklyTrend(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<TrendWeek[]> {
-  const day = (col: string) => sql<string>`substr(${sql.ref(col)}, 1, 10)`
+  // the same expression as the indexes attempts_rv_day and attempt_slips_rv_day, so they serve the GROUP BY
+  const attemptDay = sql<string>`substr(${sql.ref('attempts.submitted_at')}, 1, 10)`
+  const slipDay = sql<string>`substr(${sql.ref('attempt_slips.created_at')}, 1, 10)`
   const attemptDays = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
-    .select(eb => [day('attempts.submitted_at').as('day'), eb.fn.countAll<number>().as('n')])
-    .groupBy(day('attempts.submitted_at')).execute()
+    .select(eb => ['attempts.cohort_id', attemptDay.as('day'), eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempts.cohort_id', attemptDay]).execute()
   const slipDays = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
-    .select(eb => [day('attempt_slips.created_at').as('day'), 'attempt_slips.code', eb.fn.countAll<number>().as('n')])
-    .groupBy([day('attempt_slips.created_at'), 'attempt_slips.code']).execute()
+    .select(eb => ['attempt_slips.cohort_id', slipDay.as('day'), 'attempt_slips.code', eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempt_slips.cohort_id', slipDay, 'attempt_slips.code']).execute()
   const weeks = new Map<string, TrendWeek>()
   const at = (d: string) => {
     const w = weekOf(d)
@@ -102,9 +136,9 @@ export async function weeklyTrend(db: Kysely<Database>, f: ReviewFilters, scope:
   }
   for (const r of attemptDays) at(r.day).attempts += Number(r.n)
   for (const r of slipDays) {
+    if (!isSlipCode(r.code)) continue
     const w = at(r.day)
-    const code = r.code as SlipCode
-    w.slips[code] = (w.slips[code] ?? 0) + Number(r.n)
+    w.slips[r.code] = (w.slips[r.code] ?? 0) + Number(r.n)
   }
   return [...weeks.values()].sort((a, b) => a.week.localeCompare(b.week))
 }

@@ -3,64 +3,71 @@
 // patterns live in shared/review/patterns.ts, shared with the tests that run
 // them on hand-made histories.
 import { sql } from 'kysely'
-import type { Kysely } from 'kysely'
+import type { ExpressionBuilder, Kysely, RawBuilder } from 'kysely'
 import type { Database } from '~~/db/schema'
-import { SLIP_CODES } from '#shared/engine/slips'
+import { isSlipCode } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
-import { PATTERN_INFO, RECORDING_SLIPS, detectPatterns, focusSlips, needsHelpScore } from '#shared/review/patterns'
+import { PATTERN_INFO, RECORDING_SLIPS, detectPatterns, emptyCounts, focusSlips, needsHelpScore } from '#shared/review/patterns'
 import type { FoundPattern, LearnerCounts } from '#shared/review/patterns'
 import type { ReviewFilters } from '#shared/schemas/review'
 import type { LearnerRow } from '#shared/types/review'
+import { attemptsPerLearner } from './aggregates'
 import { applyReviewFilters } from './filters'
 import type { ReviewScope } from './scope'
 
-const flag = (cond: ReturnType<typeof sql>) => sql<number>`max(case when ${cond} then 1 else 0 end)`
-const code = sql.ref('attempt_slips.code')
-const eye = sql.ref('attempt_slips.eye')
-
-/** LearnerCounts for every learner with attempts in the view (the eye filter does not apply: patterns compare the eyes). */
-export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<Map<number, LearnerCounts>> {
+/**
+ * LearnerCounts for every learner with attempts in the view (the eye filter does
+ * not apply: patterns compare the eyes). Each query walks attempts_rv_learner or
+ * attempt_slips_rv_learner grouped by cohort then learner, so nothing is sorted;
+ * an attempt belongs to one cohort, so per-cohort counts add up exactly.
+ */
+export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, LearnerCounts>> {
   const noEye = { ...f, eye: undefined }
-  const attempts = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', noEye, scope)
-    .select(eb => ['attempts.learner_id', eb.fn.countAll<number>().as('n')])
-    .groupBy('attempts.learner_id').execute()
-
-  const perAttempt = applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', noEye, scope)
-    .select([
-      'attempt_slips.learner_id',
-      flag(sql`${code} in (${sql.join(RECORDING_SLIPS)})`).as('rec'),
-      flag(sql`${code} = 'direction-reversed' and ${eye} = 'RE'`).as('re_rev'),
-      flag(sql`${code} = 'direction-reversed' and ${eye} = 'LE'`).as('le_rev'),
-      ...SLIP_CODES.map(c => flag(sql`${code} = ${c}`).as(`c_${c}`)),
-    ])
-    .groupBy(['attempt_slips.learner_id', 'attempt_slips.attempt_id'])
-  const perLearner = await db.selectFrom(perAttempt.as('a'))
+  const slips = () => applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', noEye, scope)
+  const distinctAttempts = (eb: ExpressionBuilder<Database, 'attempt_slips'>) => eb.fn.count<number>('attempt_slips.attempt_id').distinct()
+  const attempts = await attemptsPerLearner(db, noEye, scope, cohortsOf)
+  const attemptIf = (cond: RawBuilder<unknown>) => sql`case when ${cond} then ${sql.ref('attempt_slips.attempt_id')} end`
+  const eye = sql.ref('attempt_slips.eye')
+  // one pass per learner and code: attempts with the code, and for reversals which eyes
+  const byCode = await slips()
     .select(eb => [
-      'a.learner_id',
-      eb.fn.countAll<number>().as('slip_attempts'),
-      sql<number>`sum(a.rec)`.as('rec'),
-      sql<number>`sum(case when a.re_rev = 1 and a.le_rev = 0 then 1 else 0 end)`.as('re_only'),
-      sql<number>`sum(case when a.le_rev = 1 and a.re_rev = 0 then 1 else 0 end)`.as('le_only'),
-      sql<number>`sum(case when a.re_rev = 1 and a.le_rev = 1 then 1 else 0 end)`.as('both'),
-      ...SLIP_CODES.map(c => sql<number>`sum(${sql.ref(`a.c_${c}`)})`.as(`c_${c}`)),
+      'attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code', distinctAttempts(eb).as('n'),
+      sql<number>`count(distinct ${attemptIf(sql`${eye} = 'RE'`)})`.as('re'),
+      sql<number>`count(distinct ${attemptIf(sql`${eye} = 'LE'`)})`.as('le'),
+      sql<number>`count(distinct ${attemptIf(sql`${eye} in ('RE', 'LE')`)})`.as('eyed'),
     ])
-    .groupBy('a.learner_id').execute() as unknown as Record<string, number>[]
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code']).execute()
+  // one pass per learner: attempts with any slip, and with any recording slip
+  const any = await slips()
+    .select(eb => [
+      'attempt_slips.cohort_id', 'attempt_slips.learner_id', distinctAttempts(eb).as('n'),
+      sql<number>`count(distinct ${attemptIf(sql`${sql.ref('attempt_slips.code')} in (${sql.join(RECORDING_SLIPS)})`)})`.as('rec'),
+    ])
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.learner_id']).execute()
 
   const out = new Map<number, LearnerCounts>()
-  for (const r of attempts) {
-    out.set(r.learner_id, { attempts: Number(r.n), slipAttempts: 0, byCode: {}, recordingAttempts: 0, reversed: { reOnly: 0, leOnly: 0, both: 0 } })
-  }
-  for (const r of perLearner) {
-    const c = out.get(Number(r.learner_id))
-    if (!c) continue
-    c.slipAttempts = Number(r.slip_attempts)
-    c.recordingAttempts = Number(r.rec)
-    c.reversed = { reOnly: Number(r.re_only), leOnly: Number(r.le_only), both: Number(r.both) }
-    for (const sc of SLIP_CODES) {
-      const n = Number(r[`c_${sc}`] ?? 0)
-      if (n) c.byCode[sc] = n
+  for (const [id, n] of attempts) out.set(id, { ...emptyCounts(), attempts: n })
+  const each = <R extends { learner_id: number }>(rows: R[], fn: (c: LearnerCounts, r: R) => void) => {
+    for (const r of rows) {
+      const c = out.get(r.learner_id)
+      if (c) fn(c, r)
     }
   }
+  each(byCode, (c, r) => {
+    if (isSlipCode(r.code)) c.byCode[r.code] = (c.byCode[r.code] ?? 0) + Number(r.n)
+    if (r.code !== 'direction-reversed') return
+    // attempts reversed in the right eye, the left, either: the rest is arithmetic
+    const re = Number(r.re)
+    const le = Number(r.le)
+    const all = Number(r.eyed)
+    c.reversed.reOnly += all - le
+    c.reversed.leOnly += all - re
+    c.reversed.both += re + le - all
+  })
+  each(any, (c, r) => {
+    c.slipAttempts += Number(r.n)
+    c.recordingAttempts += Number(r.rec)
+  })
   return out
 }
 
@@ -74,7 +81,8 @@ function evidenceMatches(p: FoundPattern, slip: { code: string, eye: string | nu
 
 /** The ranked "needs help" list: learners with at least one pattern, most help needed first. */
 export async function needsHelp(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, limit: number): Promise<{ items: LearnerRow[], total: number, learnersSeen: number }> {
-  const counts = await learnerCounts(db, f, scope)
+  const cohortsOf = new Map<number, Set<number>>()
+  const counts = await learnerCounts(db, f, scope, cohortsOf)
   const ids = [...counts.keys()]
   const people = ids.length
     ? await db.selectFrom('users')
@@ -94,7 +102,8 @@ export async function needsHelp(db: Kysely<Database>, f: ReviewFilters, scope: R
 
   const wanted = [...new Set(top.flatMap(x => x.patterns.flatMap(p => focusSlips(p.code))))]
   const evidence = top.length && wanted.length
-    ? await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', { ...f, eye: undefined }, scope)
+    // naming the learners' cohorts lets SQLite use attempt_slips_rv_learner (cohort, learner, code), which covers this query
+    ? await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', { ...f, eye: undefined }, { ...scope, cohortIds: [...new Set(top.flatMap(x => [...(cohortsOf.get(x.id) ?? [])]))] })
         .select(['attempt_slips.learner_id', 'attempt_slips.attempt_id', 'attempt_slips.code', 'attempt_slips.eye'])
         .where('attempt_slips.learner_id', 'in', top.map(x => x.id))
         .where('attempt_slips.code', 'in', wanted)
