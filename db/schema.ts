@@ -309,6 +309,8 @@ export interface QuizMarkOverridesTable {
   reason: string
   actor_id: number | null
   created_at: Timestamp
+}
+
 /** A targeted practice set sent from the slip-patterns page (cases in `cases.practice_set_id`). */
 export interface PracticeSetsTable {
   id: Generated<number>

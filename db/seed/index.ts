@@ -3,6 +3,7 @@
 // seeds unless asked.
 import type { Kysely } from 'kysely'
 import type { Database } from '../schema'
+import { seedHistories } from './history'
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedSchool } from './school'
 import { seedQuizzes } from './quizzes'
 
@@ -26,10 +27,12 @@ export async function seedDemoIfWanted(db: Kysely<Database>, options: SeedOption
   if (already) return false
   const hash = await options.hashPassword(DEMO_PASSWORD)
   const now = new Date().toISOString()
-  const quizzes = await db.transaction().execute(async (trx) => {
+  const { quizzes, attempts } = await db.transaction().execute(async (trx) => {
     const ids = await seedSchool(trx, hash, now)
-    return seedQuizzes(trx, ids, now)
+    const quizzes = await seedQuizzes(trx, ids, now)
+    const attempts = await seedHistories(trx, ids.userIds, now)
+    return { quizzes, attempts }
   })
-  options.log?.(`demo school seeded: ${DEMO_PEOPLE.length} people, ${quizzes} quizzes`)
+  options.log?.(`demo school seeded: ${DEMO_PEOPLE.length} people, ${quizzes} quizzes, ${attempts} practice attempts`)
   return true
 }

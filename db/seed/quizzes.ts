@@ -12,7 +12,9 @@ import { DEFAULT_QUIZ_WEIGHTS, buildItemCase } from '../../server/utils/quiz/ite
 import { ensureQuizCase } from '../../server/utils/quiz/sitting'
 import { sittingDeadline } from '../../server/utils/quiz/timing'
 import { DEMO_PEOPLE } from './school'
+import { quizHabitOf } from './history'
 import { HABITS, demoReadings, demoRecord, foundFrom } from './quiz-records'
+import type { Habit } from './quiz-records'
 
 const HOUR = 3_600_000
 const DAY = 24 * HOUR
@@ -82,10 +84,9 @@ async function addQuiz(db: Kysely<Database>, plan: CohortPlan, q: { title: strin
 }
 
 /** One student sits a quiz: each item measured and recorded the way their habit goes. */
-async function sit(db: Kysely<Database>, quiz: QuizRow, items: QuizItemRow[], studentId: number, habitIndex: number, startMs: number, submit: boolean) {
+async function sit(db: Kysely<Database>, quiz: QuizRow, items: QuizItemRow[], studentId: number, habit: Habit, startMs: number, submit: boolean) {
   const started = iso(startMs)
   await db.insertInto('quiz_sittings').values({ quiz_id: quiz.id, student_id: studentId, started_at: started, deadline_at: sittingDeadline(quiz, started), finished_at: null }).execute()
-  const habit = HABITS[habitIndex % HABITS.length]!
   let clock = startMs
   for (const item of items) {
     const row = await ensureQuizCase(db, quiz, item, studentId, started)
@@ -132,6 +133,10 @@ export async function seedQuizzes(db: Kysely<Database>, ids: { cohortIds: Map<st
     p.studentIds = DEMO_PEOPLE.filter(x => x.role === 'student' && x.cohort === cohortName).map(x => ids.userIds.get(x.email)!)
   }
 
+  // a learner keeps the habit they show in practice (db/seed/history.ts), so slip patterns stay true
+  const emailOf = new Map([...ids.userIds].map(([email, id]) => [id, email]))
+  const habitFor = (sid: number, i: number): Habit => quizHabitOf(emailOf.get(sid)) ?? HABITS[i % HABITS.length]!
+
   let made = 0
   for (const plan of plans) {
     const stamp = iso(now - 20 * DAY)
@@ -161,7 +166,7 @@ export async function seedQuizzes(db: Kysely<Database>, ids: { cohortIds: Map<st
       { prompt: 'Patient 2: measure in primary position at near and record.', config: dmr(exactSource, { mode: 'learner-turns' }) },
     ])
     for (const [i, sid] of plan.studentIds.entries()) {
-      await sit(db, week3.quiz, week3.items, sid, i, now - 14 * DAY + (10 + i * 7) * 60_000, true)
+      await sit(db, week3.quiz, week3.items, sid, habitFor(sid, i), now - 14 * DAY + (10 + i * 7) * 60_000, true)
     }
 
     // open now: one student part-way through, the work autosaved
@@ -180,7 +185,7 @@ export async function seedQuizzes(db: Kysely<Database>, ids: { cohortIds: Map<st
       { prompt: 'Patient 2: measure, record and interpret.', config: dmr({ type: 'engine', templateId: 'skew-deviation-standard', title: 'Skew deviation — with ocular tilt reaction torsion (standard)' }, { mode: 'learner-turns' }) },
     ])
     const partWay = plan.studentIds[1]
-    if (partWay) await sit(db, week6.quiz, week6.items, partWay, 1, now - 20 * 60_000, false)
+    if (partWay) await sit(db, week6.quiz, week6.items, partWay, habitFor(partWay, 1), now - 20 * 60_000, false)
 
     // scheduled for the end of term
     await addQuiz(db, plan, {

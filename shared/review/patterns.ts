@@ -28,17 +28,17 @@ export const PATTERN_INFO: Record<PatternCode, { title: string, summary: string,
   'image-recorded': {
     title: 'Reverses the direction in both eyes',
     summary: 'Excyclo and incyclo come out the wrong way round for either eye: most likely recording the tilt of the image, not the position of the eye.',
-    weight: 3,
+    weight: 10,
   },
   'left-right-rule-swapped': {
     title: 'Reverses the direction in one eye only',
     summary: 'The direction is wrong for one eye and right for the other: the right eye\'s reading rule used on the left eye, or the reverse.',
-    weight: 3,
+    weight: 10,
   },
   'dial-value-as-amount': {
     title: 'Writes dial figures as amounts',
     summary: 'The amount written is the figure on the dial (e.g. 100°), not the change from 90°.',
-    weight: 2,
+    weight: 5,
   },
   'test-unnamed': {
     title: 'Names no test',
@@ -48,12 +48,12 @@ export const PATTERN_INFO: Record<PatternCode, { title: string, summary: string,
   'measures-not-records': {
     title: 'Measures badly, records correctly',
     summary: 'Dial settings are often not where the lines look level, but what is written follows correctly from them.',
-    weight: 1,
+    weight: 2,
   },
   'records-not-measures': {
     title: 'Measures well, records badly',
     summary: 'Dial settings are right, but the written record often does not follow from them.',
-    weight: 2,
+    weight: 3,
   },
 }
 
@@ -148,7 +148,10 @@ export function detectPatterns(c: LearnerCounts): FoundPattern[] {
   return found
 }
 
-/** Rank for the "needs help" list: weighted attempts showing a pattern. */
+/**
+ * Rank for the "needs help" list: attempts showing a pattern, weighted so that sign
+ * errors (a reversed direction changes the diagnosis) come before incomplete records.
+ */
 export const needsHelpScore = (patterns: readonly FoundPattern[]): number =>
   patterns.reduce((sum, p) => sum + PATTERN_INFO[p.code].weight * p.count, 0)
 

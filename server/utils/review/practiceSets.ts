@@ -8,7 +8,7 @@ import type { SlipCode } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, focusSlips } from '#shared/review/patterns'
 import type { PatternCode } from '#shared/review/patterns'
-import { GENERATOR_VERSION } from '../engine/generator'
+import { insertCase } from '../cases'
 import { chooseSetCases, modeForFocus } from './setCases'
 
 /** The set's title as the learner sees it: what to practise, never the diagnosis. */
@@ -51,23 +51,9 @@ export async function createPracticeSet(db: Kysely<Database>, s: NewSet, now: st
     }).returning('id').executeTakeFirstOrThrow()
     for (const learner of s.learners) {
       await trx.insertInto('practice_set_learners').values({ set_id: id, learner_id: learner.id, sent_at: now, mail_job_id: null }).execute()
-      const cases = chooseSetCases(id, learner.id, s.focus, s.size, s.eye)
-      if (cases.length) {
-        await trx.insertInto('cases').values(cases.map(c => ({
-          owner_id: learner.id,
-          purpose: 'practice' as const,
-          template_id: c.templateId,
-          // the learner is not told the condition: naming it would give the direction away
-          template_hidden: 1 as const,
-          seed: c.seed,
-          generator_version: GENERATOR_VERSION,
-          condition: c.condition,
-          difficulty: c.difficulty,
-          mode: modeForFocus(s.focus),
-          practice_set_id: id,
-          created_at: now,
-          updated_at: now,
-        }))).execute()
+      for (const c of chooseSetCases(id, learner.id, s.focus, s.size, s.eye)) {
+        // the learner is not told the condition: naming it would give the direction away
+        await insertCase(trx, { ownerId: learner.id, purpose: 'practice', mode: modeForFocus(s.focus), templateId: c.templateId, seed: c.seed, templateHidden: true, practiceSetId: id, now })
       }
     }
     await writeAudit(trx, { actorId: s.createdBy, action: 'practice-set.create', targetType: 'practice_set', targetId: id, detail: { focus: s.focus, eye: s.eye ?? null, learners: s.learners.length, size: s.size } })

@@ -1,51 +1,24 @@
 // Staff replay of one attempt: the bench state the learner submitted and the
-// result, for the read-only bench. The case is regenerated from its stored
-// template + seed + generator version (or its hand-authored snapshot), exactly
-// as the attempt was graded; the explanation is re-derived by the same grader.
+// result exactly as first shown (recordAttempt stores it; nothing is regraded),
+// plus the case's presentation so a read-only bench can draw the patient's view.
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
-import { readAsLine } from '#shared/engine/parser'
-import type { ParsedRecord } from '#shared/engine/parser'
 import type { Presentation } from '#shared/engine/presentation'
-import type { Slip } from '#shared/engine/slips'
 import type { Distance, Gaze, Lights, Mode, PerEye, Prism } from '#shared/engine/types'
-import { gradeAttempt } from '../engine/attempt'
-import { caseFromSpec, generateCase } from '../engine/generator'
+import type { AttemptResult } from '#shared/types/practice'
+import { attemptResultFromRow } from '../attempts'
+import { regenerateCase } from '../cases'
 import { toPresentation } from '../engine/presentation'
-import type { Case } from '../engine/types'
 import type { ReviewScope } from './scope'
 
 export interface StaffReplay {
   attempt: { id: number, gaze: Gaze, distance: Distance, readings: PerEye<number>, prisms: Prism[], lights: Lights, record: string, trial: number | null, submittedAt: string }
-  result: { readAs: string, marks: unknown[], score: number, points: { earned: number, possible: number }, slips: Slip[], explanation: string[], modelRecord: string | null, truth: unknown, interpretation?: unknown }
+  result: AttemptResult
   case: { id: number, title: string, templateId: string | null, condition: string, difficulty: string, mode: Mode, readScale: boolean, presentation: Presentation | null }
   learner: { id: number, name: string }
   cohort: { id: number, name: string } | null
   kind: 'practice' | 'quiz'
   quizId: number | null
-}
-
-function parse<T>(text: string | null, fallback: T): T {
-  if (!text) return fallback
-  try {
-    return JSON.parse(text) as T
-  }
-  catch {
-    return fallback
-  }
-}
-
-function regenerate(c: { template_id: string | null, seed: string, generator_version: number, spec_json: string | null }): Case | null {
-  try {
-    if (c.spec_json) {
-      const made = caseFromSpec(JSON.parse(c.spec_json))
-      return made.ok ? made.case : null
-    }
-    return c.template_id ? generateCase(c.template_id, c.seed, c.generator_version) : null
-  }
-  catch {
-    return null
-  }
 }
 
 /** The replay, or null when the attempt does not exist or lies outside the caller's cohorts. */
@@ -61,37 +34,26 @@ export async function staffReplay(db: Kysely<Database>, attemptId: number, scope
   const a = await q.executeTakeFirst()
   if (!a) return null
 
-  const parsed = parse<ParsedRecord | null>(a.parsed_json, null)
-  const truth = parse<Record<string, unknown> | null>(a.truth_json, null)
-  const readings = parse<PerEye<number>>(a.readings_json, { RE: 90, LE: 90 })
-  const prisms = parse<Prism[]>(a.prisms_json, [])
-  const lights = (a.lights === 'on' ? 'on' : 'dim') as Lights
-  const made = regenerate({ template_id: a.template_id, seed: a.seed, generator_version: a.generator_version, spec_json: a.spec_json })
-  let explanation: string[] = []
-  if (made) {
-    const regraded = gradeAttempt(made, {
-      gaze: a.gaze as Gaze,
-      distance: a.distance as Distance,
-      readings,
-      prisms,
-      lights,
-      record: a.record_text,
-    }, { mode: a.mode, trial: a.trial ?? undefined })
-    explanation = regraded.explanation
+  let made: ReturnType<typeof regenerateCase> | null = null
+  try {
+    made = regenerateCase({ template_id: a.template_id, spec_json: a.spec_json, seed: a.seed, generator_version: a.generator_version })
+  }
+  catch {
+    // an attempt whose case can no longer be rebuilt still shows its stored result
   }
   return {
-    attempt: { id: a.id, gaze: a.gaze as Gaze, distance: a.distance as Distance, readings, prisms, lights, record: a.record_text, trial: a.trial, submittedAt: a.submitted_at },
-    result: {
-      readAs: parsed ? readAsLine(parsed) : '',
-      marks: parse<unknown[]>(a.marks_json, []),
-      score: a.score,
-      points: { earned: a.points_earned, possible: a.points_possible },
-      slips: parse<Slip[]>(a.slips_json, []),
-      explanation,
-      modelRecord: typeof truth?.modelRecord === 'string' ? truth.modelRecord : null,
-      truth,
-      ...(a.interpretation_json ? { interpretation: parse(a.interpretation_json, null) } : {}),
+    attempt: {
+      id: a.id,
+      gaze: a.gaze as Gaze,
+      distance: a.distance as Distance,
+      readings: JSON.parse(a.readings_json),
+      prisms: JSON.parse(a.prisms_json),
+      lights: (a.lights === 'on' ? 'on' : 'dim') as Lights,
+      record: a.record_text,
+      trial: a.trial,
+      submittedAt: a.submitted_at,
     },
+    result: attemptResultFromRow(a),
     case: {
       id: a.case_id,
       title: made?.label ?? a.condition,
