@@ -3,11 +3,11 @@
 // plus the case's presentation so a read-only bench can draw the patient's view.
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
-import type { Presentation } from '#shared/engine/presentation'
+import type { PatientTurnsResult, Presentation } from '#shared/engine/presentation'
 import type { Distance, Gaze, Lights, Mode, PerEye, Prism } from '#shared/engine/types'
 import type { AttemptResult } from '#shared/types/practice'
 import { attemptResultFromRow } from '../attempts'
-import { regenerateCase } from '../cases'
+import { caseTurns, regenerateCase } from '../cases'
 import { toPresentation } from '../engine/presentation'
 import type { ReviewScope } from './scope'
 
@@ -15,6 +15,8 @@ export interface StaffReplay {
   attempt: { id: number, gaze: Gaze, distance: Distance, readings: PerEye<number>, prisms: Prism[], lights: Lights, record: string, trial: number | null, submittedAt: string }
   result: AttemptResult
   case: { id: number, title: string, templateId: string | null, condition: string, difficulty: string, mode: Mode, readScale: boolean, presentation: Presentation | null }
+  /** Patient-turns: where the patient left the rods on the trial the learner read. */
+  turns: PatientTurnsResult[]
   learner: { id: number, name: string }
   cohort: { id: number, name: string } | null
   kind: 'practice' | 'quiz'
@@ -64,6 +66,7 @@ export async function staffReplay(db: Kysely<Database>, attemptId: number, scope
       readScale: a.read_scale === 1,
       presentation: made ? toPresentation(made, a.mode) : null,
     },
+    turns: a.trial ? (await caseTurns(db, a.case_id)).filter(t => t.trial === a.trial).map(t => t.result) : [],
     learner: { id: a.learner_id, name: a.learner_name },
     cohort: a.cohort_id && a.cohort_name ? { id: a.cohort_id, name: a.cohort_name } : null,
     kind: a.kind,
