@@ -18,11 +18,11 @@ export const DEMO_HABITS: Record<string, Profile> = {
   'priya.vellacott@cyclodial.test': 'image',
   'oisin.marrable@cyclodial.test': 'clean',
   'wen.hallowby@cyclodial.test': 'dial',
-  'adaeze.quillon@cyclodial.test': 'mostly-clean',
+  'adaeze.quillon@cyclodial.test': 'unnamed',
   'milo.strathearn@cyclodial.test': 'image',
   'freya.dunmoor@cyclodial.test': 'mostly-clean',
   'kofi.ashgrove@cyclodial.test': 'swap-RE',
-  'ines.calloway@cyclodial.test': 'unnamed',
+  'ines.calloway@cyclodial.test': 'mostly-clean',
   'rafe.tolliver@cyclodial.test': 'measures-badly',
   'noor.bramblecote@cyclodial.test': 'clean',
 }

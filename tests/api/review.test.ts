@@ -46,9 +46,10 @@ describe('the demo histories (seeded through recordAttempt)', () => {
     expect(found['Priya Vellacott']).toEqual(['image-recorded'])
     expect(found['Milo Strathearn']).toEqual(['image-recorded'])
     expect(found['Wen Hallowby']).toEqual(['dial-value-as-amount'])
-    expect(found['Inès Calloway']).toEqual(['test-unnamed'])
+    expect(found['Adaeze Quillon']).toEqual(['test-unnamed'])
     expect(found['Rafe Tolliver']).toEqual(['measures-not-records'])
-    for (const clean of ['Oisín Marrable', 'Noor Bramblecote', 'Tamsin Arkwell']) expect(found[clean]).toBeUndefined()
+    // (the demo student and Freya also practise in other API tests, so their histories are not the seed's alone)
+    for (const clean of ['Oisín Marrable', 'Noor Bramblecote', 'Inès Calloway']) expect(found[clean], clean).toBeUndefined()
     // evidence: counts and example attempts that really show the slip
     const jory = r.body.items.find((l: any) => l.learner.name === 'Jory Feldane')
     const swap = jory.patterns[0]
@@ -58,7 +59,7 @@ describe('the demo histories (seeded through recordAttempt)', () => {
       expect(read.count('SELECT count(*) AS n FROM attempt_slips WHERE attempt_id = ? AND code = \'direction-reversed\' AND eye = \'LE\'', a)).toBe(1)
     }
     // a rule swap or a reversal outranks a missing test name
-    expect(names(r.body.items).indexOf('Jory Feldane')).toBeLessThan(names(r.body.items).indexOf('Inès Calloway'))
+    expect(names(r.body.items).indexOf('Jory Feldane')).toBeLessThan(names(r.body.items).indexOf('Adaeze Quillon'))
   })
 
   it('count slips and fill the direction table from stored attempts', async () => {
@@ -81,7 +82,7 @@ describe('tutor scope', () => {
     const mine = await tutor.get('/api/review/learners?limit=100')
     expect(mine.status).toBe(200)
     expect(names(mine.body.items)).toContain('Jory Feldane')
-    for (const n of ['Milo Strathearn', 'Kofi Ashgrove', 'Inès Calloway', 'Rafe Tolliver']) expect(names(mine.body.items)).not.toContain(n)
+    for (const n of ['Milo Strathearn', 'Kofi Ashgrove', 'Rafe Tolliver']) expect(names(mine.body.items)).not.toContain(n)
     expect((await tutor.get(`/api/review/slips?cohortId=${heron}`)).status).toBe(404)
     expect((await tutor.get(`/api/review/learners?cohortId=${heron}`)).status).toBe(404)
     expect((await tutor.get(`/api/review/slips?cohortId=${kestrel}`)).status).toBe(200)
