@@ -67,6 +67,10 @@ export function patientSetsRods(c: Case, req: TurnRequest): PatientTurnsResult {
     const sd = c.response.reliabilitySd * (before.overlap ? 2 : 1)
     return round1(normal(rng, v, sd))
   })
-  const words = patientSays(c, { ...start, readings })
+  // The patient stops turning where each line looks level *to them*: their
+  // scatter is a misjudgement they cannot see, so they describe the lines as
+  // level, not as the true geometry at the setting they chose would look.
+  const believed = mapEyes(readings, (v, eye) => (before.streaks[eye].visible ? centre[eye] : v))
+  const words = patientSays(c, { ...start, readings: believed })
   return { gaze: req.gaze, distance: req.distance, trial: req.trial, readings, words }
 }

@@ -155,6 +155,22 @@ describe('patient turns the rods', () => {
     expect(halfWidth).toBeLessThan(4.7 + 1.5)
   })
 
+  it('describes the rods as level where they left them, whatever their scatter', () => {
+    // The patient stops where the lines look level to them (their misjudgement is
+    // invisible to them), so their words never contradict their own setting.
+    let checked = 0
+    for (let s = 0; s < 60; s++) {
+      const c = generateCase('so-palsy-right-challenging', `words-${s}`)
+      const prisms = [{ eye: 'RE' as const, power: 6, base: 'down' as const }]
+      const turned = patientSetsRods(c, { gaze: 'primary', distance: 'near', prisms, trial: 1 })
+      const kinds = turned.words.observations.map(o => o.kind)
+      expect(kinds).not.toContain('slopes')
+      expect(kinds).not.toContain('not-parallel')
+      checked++
+    }
+    expect(checked).toBe(60)
+  })
+
   it('leaves a rod it cannot see at 90°', () => {
     const c = generateCase('suppression-standard', 'turn')
     const hidden = c.response.seenEye === 'RE' ? 'LE' : 'RE'
