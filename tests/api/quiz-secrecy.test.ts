@@ -61,5 +61,11 @@ describe('quiz secrecy before release', () => {
     }
     expect(scanned).toBeGreaterThan(STUDENTS.length * TEMPLATES.length * 30)
     expect(leaks).toEqual([])
+
+    // the interpretation step counts only where the patient had cover-test findings to interpret
+    const mine = (await tutor.get(`/api/quizzes/${quiz.id}/results?q=arkwell`)).body.items[0]
+    const criteriaOf = (templateId: string) => mine.items[quiz.items[TEMPLATES.indexOf(templateId)]!.id].marks.map((m: { criterion: string }) => m.criterion)
+    expect(criteriaOf('normal-standard')).not.toContain('interpretation')
+    expect(criteriaOf('so-palsy-left-challenging')).toContain('interpretation')
   })
 })

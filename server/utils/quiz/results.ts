@@ -28,14 +28,15 @@ interface OverrideRow { attempt_id: number, criterion: string, previous_score: n
 export function effectiveMarks(attempt: Pick<AttemptRow, 'marks_json' | 'interpretation_json'>, config: QuizItemConfig, interpretationOn: boolean, overrides: OverrideRow[]): EffectiveMark[] {
   const marks: EffectiveMark[] = (JSON.parse(attempt.marks_json) as { criterion: QuizCriterion, score: number, weight: number, reason: string }[])
     .map(m => ({ criterion: m.criterion, score: m.score, weight: m.weight, reason: m.reason }))
-  if (interpretationOn) {
-    // recordAttempt stores { given, result }: the learner's answer and its grade
-    const interp = attempt.interpretation_json ? (JSON.parse(attempt.interpretation_json) as { result?: { score: number } }).result : undefined
+  // the step was marked only where the patient had cover-test findings to interpret;
+  // recordAttempt stores { given, result }: the learner's answer and its grade
+  if (interpretationOn && attempt.interpretation_json) {
+    const interp = (JSON.parse(attempt.interpretation_json) as { result?: { score: number } }).result
     marks.push({
       criterion: 'interpretation',
       score: interp?.score ?? 0,
       weight: config.weights.interpretation,
-      reason: interp ? 'Three-step interpretation.' : 'No interpretation given.',
+      reason: 'Three-step interpretation.',
     })
   }
   // the latest override of each criterion wins

@@ -22,6 +22,8 @@ describe('results arithmetic and CSV', () => {
     expect(marks.find(m => m.criterion === 'test')).toMatchObject({ score: 1, override: { previousScore: 0, reason: 'second' } })
     expect(marks.find(m => m.criterion === 'interpretation')).toMatchObject({ score: 0.5, weight: DEFAULT_QUIZ_WEIGHTS.interpretation })
     expect(pointsOf(marks)).toEqual({ earned: 2 + 1 + 0.5 * DEFAULT_QUIZ_WEIGHTS.interpretation, possible: 3 + DEFAULT_QUIZ_WEIGHTS.interpretation })
+    // a patient with nothing to interpret (no interpretation stored) is not marked on it
+    expect(effectiveMarks({ ...attempt, interpretation_json: null }, config, true, []).map(m => m.criterion)).toEqual(['amount', 'test'])
   })
 
   it('writes one row per student, a column per item and criterion, and escapes formulae', () => {

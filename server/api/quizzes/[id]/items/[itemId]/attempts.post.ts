@@ -9,6 +9,12 @@ import { assertSittingOpen } from '~~/server/utils/quiz/timing'
 import { recordAttempt } from '~~/server/utils/attempts'
 import { withCaseErrors } from '~~/server/utils/practice-http'
 import { withKeyLock } from '~~/server/utils/quiz/lock'
+import { regenerateCase } from '~~/server/utils/cases'
+import { toPresentation } from '~~/server/utils/engine/presentation'
+import type { CaseRow } from '~~/db/schema'
+
+/** Whether the student was shown cover-test findings to interpret (the bench offers the step only then). */
+const hasCoverTest = (row: CaseRow) => !!toPresentation(regenerateCase(row), row.mode).coverTest
 
 // Submit an item: graded and stored by recordAttempt (kind 'quiz') with the item's
 // tolerance and weights. The answer carries no marks: they wait for release.
@@ -40,8 +46,9 @@ export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => 
       caseRow: row,
       learnerId: user.id,
       kind: 'quiz',
-      // the interpretation step is marked only when the quiz asks for it
-      attempt: { ...attempt, ...(quiz.interpretation === 1 && interpretation ? { interpretation } : {}) },
+      // the interpretation step is marked when the quiz asks for it and the patient has
+      // cover-test findings to interpret (an empty answer is marked, and scores nothing)
+      attempt: { ...attempt, ...(quiz.interpretation === 1 && hasCoverTest(row) ? { interpretation: interpretation ?? {} } : {}) },
       trial: row.mode === 'patient-turns' ? trial : null,
       options: { tolerance: config.tolerance, weights: gradeWeights as Record<GradeCriterion, number> },
       quizId: id,
