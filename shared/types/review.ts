@@ -68,6 +68,7 @@ export interface ReviewAttemptRow {
   cohort: string | null
   kind: 'practice' | 'quiz'
   quizId: number | null
+  quizTitle: string | null
   templateId: string | null
   condition: string
   submittedAt: string

@@ -25,7 +25,7 @@ export default defineEventHandler(async (event) => {
     if (q.learnerId && !(await learnerInScope(db, scope, q.learnerId))) notFound('That learner')
     const { items } = await drillAttempts(db, q, scope, true)
     header = ['attempt', 'submitted', 'learner', 'cohort', 'kind', 'quiz', 'template', 'condition', 'score', 'slips', 'record']
-    rows = items.map(a => [a.id, a.submittedAt, a.learner.name, a.cohort, a.kind, a.quizId, a.templateId, a.condition, Math.round(a.score * 100) / 100,
+    rows = items.map(a => [a.id, a.submittedAt, a.learner.name, a.cohort, a.kind, a.quizTitle ?? a.quizId, a.templateId, a.condition, Math.round(a.score * 100) / 100,
       a.slips.map(s => (s.eye ? `${s.code} (${s.eye})` : s.code)).join('; '), a.record])
   }
   else if (table === 'learners') {

@@ -12,8 +12,11 @@ export default defineEventHandler(async (event) => {
     const base = t.id.replace(/-(standard|challenging)$/, '')
     return [base, { id: base, label: t.label.replace(/\s*\((standard|challenging)\)$/, '') }] as const
   })).values()]
-  let quizQ = db.selectFrom('attempts').select('quiz_id').distinct().where('quiz_id', 'is not', null)
-  if (user.role !== 'lecturer') quizQ = quizQ.where('cohort_id', 'in', cohorts.length ? cohorts.map(c => c.id) : [-1])
-  const quizzes = (await quizQ.orderBy('quiz_id').execute()).map(r => ({ id: r.quiz_id!, title: `Quiz ${r.quiz_id}` }))
+  // quizzes set for the caller's cohorts (all for a lecturer)
+  let quizQ = db.selectFrom('quizzes').select(['quizzes.id', 'quizzes.title']).where('quizzes.archived_at', 'is', null)
+  if (user.role !== 'lecturer') {
+    quizQ = quizQ.where('quizzes.id', 'in', eb => eb.selectFrom('quiz_cohorts').select('quiz_id').where('cohort_id', 'in', cohorts.length ? cohorts.map(c => c.id) : [-1]))
+  }
+  const quizzes = await quizQ.orderBy('quizzes.title').orderBy('quizzes.id').execute()
   return { cohorts, templates, conditions: CONDITIONS.filter(c => c !== 'hand-authored'), quizzes, role: user.role }
 })

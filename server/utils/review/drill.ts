@@ -62,7 +62,8 @@ export async function drillAttempts(db: Kysely<Database>, q: ReviewAttemptsQuery
     ? await db.selectFrom('attempts')
         .innerJoin('users', 'users.id', 'attempts.learner_id')
         .leftJoin('cohorts', 'cohorts.id', 'attempts.cohort_id')
-        .select([
+        .leftJoin('quizzes', 'quizzes.id', 'attempts.quiz_id')
+        .select(['quizzes.title as quiz_title',
           'attempts.id', 'attempts.learner_id', 'users.name as learner_name', 'cohorts.name as cohort_name', 'attempts.kind',
           'attempts.quiz_id', 'attempts.template_id', 'attempts.condition', 'attempts.submitted_at', 'attempts.score', 'attempts.record_text',
         ])
@@ -80,6 +81,7 @@ export async function drillAttempts(db: Kysely<Database>, q: ReviewAttemptsQuery
       cohort: r.cohort_name ?? null,
       kind: r.kind,
       quizId: r.quiz_id,
+      quizTitle: r.quiz_title ?? null,
       templateId: r.template_id,
       condition: r.condition,
       submittedAt: r.submitted_at,

@@ -28,15 +28,20 @@ export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scop
   const attempts = await attemptsPerLearner(db, noEye, scope, cohortsOf)
   const attemptIf = (cond: RawBuilder<unknown>) => sql`case when ${cond} then ${sql.ref('attempt_slips.attempt_id')} end`
   const eye = sql.ref('attempt_slips.eye')
-  // one pass per learner and code: attempts with the code, and for reversals which eyes
+  // one pass per learner and code: attempts with the code (the index keeps attempt ids
+  // in order inside each group, so this distinct count needs no temporary table)
   const byCode = await slips()
+    .select(eb => ['attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code', distinctAttempts(eb).as('n')])
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code']).execute()
+  // reversed directions only: which eyes, per attempt
+  const reversed = await slips()
     .select(eb => [
-      'attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code', distinctAttempts(eb).as('n'),
+      'attempt_slips.cohort_id', 'attempt_slips.learner_id', distinctAttempts(eb).as('eyed'),
       sql<number>`count(distinct ${attemptIf(sql`${eye} = 'RE'`)})`.as('re'),
       sql<number>`count(distinct ${attemptIf(sql`${eye} = 'LE'`)})`.as('le'),
-      sql<number>`count(distinct ${attemptIf(sql`${eye} in ('RE', 'LE')`)})`.as('eyed'),
     ])
-    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.learner_id', 'attempt_slips.code']).execute()
+    .where('attempt_slips.code', '=', 'direction-reversed').where('attempt_slips.eye', 'in', ['RE', 'LE'])
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.learner_id']).execute()
   // one pass per learner: attempts with any slip, and with any recording slip
   const any = await slips()
     .select(eb => [
@@ -55,7 +60,8 @@ export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scop
   }
   each(byCode, (c, r) => {
     if (isSlipCode(r.code)) c.byCode[r.code] = (c.byCode[r.code] ?? 0) + Number(r.n)
-    if (r.code !== 'direction-reversed') return
+  })
+  each(reversed, (c, r) => {
     // attempts reversed in the right eye, the left, either: the rest is arithmetic
     const re = Number(r.re)
     const le = Number(r.le)
