@@ -36,6 +36,8 @@ export interface CohortMembersTable {
 export interface InvitationsTable {
   id: Generated<number>
   email: string
+  /** The invitee's name when known (a roster row); they may change it on accepting. */
+  name: ColumnType<string | null, string | null | undefined, string | null>
   role: Role
   cohort_id: number | null
   token_hash: string

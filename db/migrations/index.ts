@@ -7,6 +7,7 @@ import * as m0002 from './0002_practice'
 import * as m0004 from './0004_review'
 import * as m0006 from './0006_practice_extra'
 import * as m0003 from './0003_quizzes'
+import * as m0008 from './0008_invitation_name'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
@@ -14,6 +15,7 @@ export const migrations: Record<string, Migration> = {
   '0004_review': m0004,
   '0006_practice_extra': m0006,
   '0003_quizzes': m0003,
+  '0008_invitation_name': m0008,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

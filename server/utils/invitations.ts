@@ -4,7 +4,7 @@ import type { Database } from '~~/db/schema'
 import type { Role } from '#shared/auth/roles'
 import { ROLE_LABELS } from '#shared/auth/roles'
 
-export interface InviteInput { email: string, role: Role, cohortId: number | null, invitedBy: number | null }
+export interface InviteInput { email: string, name?: string | null, role: Role, cohortId: number | null, invitedBy: number | null }
 
 /**
  * Creates an invitation record (the link's token is stored hashed) and e-mails
@@ -28,6 +28,7 @@ export async function insertInvitation(trx: Transaction<Database>, input: Invite
   const now = nowIso()
   const row = await trx.insertInto('invitations').values({
     email: input.email,
+    name: input.name ?? null,
     role: input.role,
     cohort_id: input.cohortId,
     token_hash: hash,

@@ -24,6 +24,7 @@ export const userPatchBody = z.object({
 
 export const inviteBody = z.object({
   email: emailField,
+  name: nameField.optional(),
   role: roleField,
   cohortId: z.number().int().positive().nullable().optional(),
 })

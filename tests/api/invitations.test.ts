@@ -28,7 +28,7 @@ describe('invitations', () => {
     const guest = new Client(baseURL)
     const info = await guest.get(`/api/invitations/${token}`)
     expect(info.status).toBe(200)
-    expect(info.body).toMatchObject({ email, role: 'student', cohortName: 'Heron cohort' })
+    expect(info.body).toMatchObject({ email, name: null, role: 'student', cohortName: 'Heron cohort' })
 
     const weak = await guest.post(`/api/invitations/${token}/accept`, { name: 'New Student', password: 'short' })
     expect(weak.status).toBe(400)
@@ -55,7 +55,7 @@ describe('invitations', () => {
   it('refuses an expired invitation', async () => {
     const admin = await signedIn(baseURL, DEMO.admin)
     const email = 'late.tutor@cyclodial.test'
-    await admin.post('/api/admin/invitations', { email, role: 'tutor' })
+    await admin.post('/api/admin/invitations', { email, name: 'Ivo Lattimer', role: 'tutor' })
     const mail = await waitForMail(admin, email, /invited/i)
     const token = linkIn(mail.text, '/invite').split('/invite/')[1]!
 
@@ -64,6 +64,9 @@ describe('invitations', () => {
     db.close()
 
     const guest = new Client(baseURL)
+    const db2 = new Database(dbPath, { readonly: true })
+    expect(db2.prepare('select name from invitations where email = ?').get(email)).toEqual({ name: 'Ivo Lattimer' })
+    db2.close()
     expect((await guest.get(`/api/invitations/${token}`)).status).toBe(410)
     const accept = await guest.post(`/api/invitations/${token}/accept`, { name: 'Too Late', password: 'a-long-enough-password' })
     expect(accept.status).toBe(410)

@@ -1,8 +1,7 @@
 // Roster upload over HTTP: per-row report, all-or-nothing import with invitations
 // and e-mails, and refusal of files that are too large or not CSV text.
 import { beforeAll, describe, expect, inject, it } from 'vitest'
-import type { Client } from '../support/client'
-import { DEMO, signedIn, waitForMail } from '../support/client'
+import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
 
 const baseURL = inject('baseURL')
 
@@ -70,6 +69,10 @@ describe('roster upload', () => {
     expect(mail.text).toMatch(/as a student in the Kestrel cohort/)
     const invites = (await admin.get('/api/admin/invitations?pageSize=100')).body.items
     expect(invites.find((i: { email: string }) => i.email === 'seren.walby@cyclodial.test')).toMatchObject({ role: 'student' })
+    // The roster's name travels with the invitation, ready on the acceptance form.
+    const token = linkIn(mail.text, '/invite').split('/invite/')[1]!
+    const offer = await new Client(baseURL).get(`/api/invitations/${token}`)
+    expect(offer.body).toMatchObject({ email: 'tibor.oakes@cyclodial.test', name: 'Oakes, Tibor' })
   })
 
   it('refuses a file over 1 MB, a file that is not CSV, and binary content labelled as CSV', async () => {

@@ -13,7 +13,7 @@ export default defineEventHandler(async (event) => {
     const cohort = await db.selectFrom('cohorts').select('id').where('id', '=', body.cohortId).executeTakeFirst()
     if (!cohort) badRequest([{ path: 'cohortId', message: 'Unknown cohort.' }])
   }
-  const result = await createInvitation(event, { email: body.email, role: body.role, cohortId: body.cohortId ?? null, invitedBy: admin.id })
+  const result = await createInvitation(event, { email: body.email, name: body.name ?? null, role: body.role, cohortId: body.cohortId ?? null, invitedBy: admin.id })
   setResponseStatus(event, 201)
   return {
     id: result.id,

@@ -6,13 +6,14 @@ export default defineEventHandler(async (event) => {
   const db = await useDb()
   const invitation = await db.selectFrom('invitations')
     .leftJoin('cohorts', 'cohorts.id', 'invitations.cohort_id')
-    .select(['invitations.email', 'invitations.role', 'invitations.expires_at', 'invitations.used_at', 'cohorts.name as cohortName'])
+    .select(['invitations.email', 'invitations.name', 'invitations.role', 'invitations.expires_at', 'invitations.used_at', 'cohorts.name as cohortName'])
     .where('invitations.token_hash', '=', hashToken(token))
     .executeTakeFirst()
   const state = invitation ? tokenState(invitation) : 'missing'
   if (!invitation || state !== 'usable') throw invitationGone(state)
   return {
     email: invitation.email,
+    name: invitation.name,
     role: invitation.role,
     roleLabel: ROLE_LABELS[invitation.role],
     cohortName: invitation.cohortName,

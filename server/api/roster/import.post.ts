@@ -19,7 +19,7 @@ export default defineEventHandler(async (event): Promise<RosterImportResult> => 
   const created = await db.transaction().execute(async (trx) => {
     const out: { input: InviteInput, token: string }[] = []
     for (const row of report.rows) {
-      const input: InviteInput = { email: row.email, role: 'student', cohortId: row.cohort!.id, invitedBy: user.id }
+      const input: InviteInput = { email: row.email, name: row.name || null, role: 'student', cohortId: row.cohort!.id, invitedBy: user.id }
       const { token } = await insertInvitation(trx, input)
       out.push({ input, token })
     }
