@@ -183,6 +183,8 @@ export interface AttemptsTable {
   read_as: string | null
   model_record: string | null
   explanation_json: string | null
+  /** 0007: the attempt's distinct slips as one sorted key (shared/review/slipSet.ts); '' when clean. */
+  slip_set: string
 }
 
 /** One row per slip on an attempt, denormalised for fast aggregation. */

@@ -6,6 +6,7 @@ import * as m0001 from './0001_init'
 import * as m0002 from './0002_practice'
 import * as m0004 from './0004_review'
 import * as m0006 from './0006_practice_extra'
+import * as m0007 from './0007_review_learners'
 import * as m0003 from './0003_quizzes'
 import * as m0008 from './0008_invitation_name'
 
@@ -14,6 +15,7 @@ export const migrations: Record<string, Migration> = {
   '0002_practice': m0002,
   '0004_review': m0004,
   '0006_practice_extra': m0006,
+  '0007_review_learners': m0007,
   '0003_quizzes': m0003,
   '0008_invitation_name': m0008,
 }

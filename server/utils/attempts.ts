@@ -9,6 +9,7 @@ import { readAsLine } from '#shared/engine/parser'
 
 import type { Eye, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
 
+import { slipSetOf } from '#shared/review/slipSet'
 import type { AttemptResult } from '#shared/types/practice'
 import type { AttemptKind, AttemptRow, CaseRow, Database } from '~~/db/schema'
 import type { AttemptGrade, AttemptInput } from './engine/attempt'
@@ -153,6 +154,8 @@ export async function recordAttempt(db: Kysely<Database>, input: RecordAttemptIn
       read_as: grade.readAs,
       model_record: grade.modelRecord,
       explanation_json: JSON.stringify(grade.explanation),
+      // the same slips as the attempt_slips rows below, as one key for the per-learner counts
+      slip_set: slipSetOf(grade.slips),
     }).returning('id').executeTakeFirstOrThrow()
     if (grade.slips.length) {
       await trx.insertInto('attempt_slips').values(grade.slips.map(s => ({

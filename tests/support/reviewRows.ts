@@ -3,6 +3,7 @@
 // stores (migration 0002); JSON fields default to small valid documents.
 import type { Insertable, Kysely } from 'kysely'
 import type { AttemptsTable, Database } from '../../db/schema'
+import { slipSetOf } from '../../shared/review/slipSet'
 
 export interface RowSlip { code: string, eye?: 'RE' | 'LE' }
 
@@ -78,6 +79,8 @@ export function attemptValues(a: RowAttempt, caseId: number): Insertable<Attempt
     re_amount_error: a.reError ?? null,
     le_amount_error: a.leError ?? null,
     submitted_at: a.submittedAt,
+    // what recordAttempt stores beside the slip rows (migration 0007)
+    slip_set: slipSetOf(a.slips),
     ...a.extra,
   }
 }

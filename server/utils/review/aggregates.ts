@@ -16,20 +16,13 @@ import type { AmountBandCount, DirectionTable, ReviewTotals, SlipCount, TrendWee
 import { applyReviewFilters } from './filters'
 import type { ReviewScope } from './scope'
 
-/** Attempts per learner in the view (also gives the totals), and the cohorts each learner's attempts were in. */
-export async function attemptsPerLearner(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, number>> {
+/** Attempts per learner in the view (gives the totals). */
+export async function attemptsPerLearner(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<Map<number, number>> {
   const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
     .select(eb => ['attempts.cohort_id', 'attempts.learner_id', eb.fn.countAll<number>().as('n')])
     .groupBy(['attempts.cohort_id', 'attempts.learner_id']).execute()
   const out = new Map<number, number>()
-  for (const r of rows) {
-    out.set(r.learner_id, (out.get(r.learner_id) ?? 0) + Number(r.n))
-    if (cohortsOf && r.cohort_id !== null) {
-      const set = cohortsOf.get(r.learner_id) ?? new Set<number>()
-      set.add(r.cohort_id)
-      cohortsOf.set(r.learner_id, set)
-    }
-  }
+  for (const r of rows) out.set(r.learner_id, (out.get(r.learner_id) ?? 0) + Number(r.n))
   return out
 }
 

@@ -1,6 +1,7 @@
 // The page's filters as WHERE clauses. attempts and attempt_slips carry the same
 // denormalised columns (cohort, kind, quiz, template, condition), so one helper
 // serves both; only the time column differs.
+import { sql } from 'kysely'
 import type { SelectQueryBuilder } from 'kysely'
 import type { Database } from '~~/db/schema'
 import type { ReviewFilters } from '#shared/schemas/review'
@@ -23,7 +24,7 @@ export function applyReviewFilters<T extends Table, O>(
   table: T,
   f: Partial<ReviewFilters>,
   scope: ReviewScope,
-  options: { eye?: boolean } = {},
+  options: { eye?: boolean, dateByIndex?: boolean } = {},
 ): SelectQueryBuilder<Database, T, O> {
   // Kysely cannot type a column reference shared by two tables; the names are checked here instead.
   let q = qb as SelectQueryBuilder<any, any, O>
@@ -32,7 +33,11 @@ export function applyReviewFilters<T extends Table, O>(
   else q = q.where(col('cohort_id'), 'is not', null)
   if (f.kind) q = q.where(col('kind'), '=', f.kind)
   if (f.quizId) q = q.where(col('quiz_id'), '=', f.quizId)
-  const time = col(table === 'attempts' ? 'submitted_at' : 'created_at')
+  const column = col(table === 'attempts' ? 'submitted_at' : 'created_at')
+  // dateByIndex false: the same comparison on an expression no index holds, so that for
+  // a date range SQLite keeps the query's covering index instead of a time index that
+  // would read every wide row in the range (a text || '' is the text itself)
+  const time = options.dateByIndex === false ? sql<string>`${sql.ref(column)} || ''` : column
   if (f.from) q = q.where(time, '>=', f.from)
   if (f.to) q = q.where(time, '<', dayAfter(f.to))
   if (f.template) q = q.where(col('template_id'), 'in', templateIds(f.template))

@@ -1,0 +1,155 @@
+// attempts.slip_set (migration 0007) against a from-scratch count: the backfill
+// gives every existing attempt the key of its attempt_slips rows, the per-learner
+// counts read from it equal countsFromHistory, and the planner answers the
+// per-learner queries from their covering indexes without a sort (EXPLAIN QUERY
+// PLAN; no timing here — npm run bench:review measures speed).
+import SQLite from 'better-sqlite3'
+import { Kysely, Migrator, SqliteDialect } from 'kysely'
+import type { CompiledQuery } from 'kysely'
+import { afterEach, describe, expect, it } from 'vitest'
+import { fc } from '@fast-check/vitest'
+import type { Slip } from '#shared/engine/slips'
+import { countsFromHistory } from '#shared/review/patterns'
+import { slipSetOf } from '#shared/review/slipSet'
+import { reviewFilterQuery } from '#shared/schemas/review'
+import { migrateToLatest } from '../../../db/open'
+import { staticMigrationProvider } from '../../../db/migrations'
+import type { Database } from '../../../db/schema'
+import { learnerCounts, needsHelp } from '../../../server/utils/review/learners'
+import type { ReviewScope } from '../../../server/utils/review/scope'
+import { attemptValues } from '../../support/reviewRows'
+
+const all: ReviewScope = { cohortIds: null, role: 'lecturer', userId: 0 }
+const now = '2026-11-02T10:00:00.000Z'
+let sqlite: SQLite.Database
+let queries: CompiledQuery[] = []
+
+function open(): Kysely<Database> {
+  sqlite = new SQLite(':memory:')
+  sqlite.pragma('foreign_keys = ON')
+  return new Kysely<Database>({
+    dialect: new SqliteDialect({ database: sqlite }),
+    log: (e) => {
+      if (e.level === 'query') queries.push(e.query)
+    },
+  })
+}
+afterEach(() => {
+  sqlite?.close()
+  queries = []
+})
+
+const slipArb = fc.record({
+  code: fc.constantFrom('direction-reversed', 'direction-reversed', 'dial-value-as-amount', 'amount-off', 'test-unnamed', 'not-parallel'),
+  eye: fc.option(fc.constantFrom('RE', 'LE'), { nil: undefined }),
+}).map(s => (s.eye ? { code: s.code, eye: s.eye } : { code: s.code }) as Slip)
+
+async function people(db: Kysely<any>, n: number) {
+  const cohorts: number[] = []
+  for (const name of ['A', 'B']) cohorts.push((await db.insertInto('cohorts').values({ name, created_at: now, updated_at: now }).returning('id').executeTakeFirstOrThrow()).id)
+  const ids: number[] = []
+  for (let i = 0; i < n; i++) {
+    const { id } = await db.insertInto('users').values({ email: `l${i}@x.test`, name: `Learner ${i}`, role: 'student', password_hash: 'x', created_at: now, updated_at: now }).returning('id').executeTakeFirstOrThrow()
+    await db.insertInto('cohort_members').values({ cohort_id: cohorts[i % 2]!, user_id: id, created_at: now }).execute()
+    ids.push(id)
+  }
+  const { id: caseId } = await db.insertInto('cases').values({
+    owner_id: ids[0]!, purpose: 'practice', template_id: 'so-palsy-left-standard', seed: 's', generator_version: 1,
+    condition: 'so-palsy', difficulty: 'standard', mode: 'learner-turns', created_at: now, updated_at: now,
+  }).returning('id').executeTakeFirstOrThrow()
+  return { cohorts, ids, caseId }
+}
+
+/** Every attempt's slip_set beside the key made from scratch from its attempt_slips rows. */
+async function storedAndRecounted(db: Kysely<Database>) {
+  const attempts = await db.selectFrom('attempts').select(['id', 'slip_set']).orderBy('id').execute()
+  const slipsOf = new Map<number, { code: string, eye: string | null }[]>()
+  for (const s of await db.selectFrom('attempt_slips').select(['attempt_id', 'code', 'eye']).execute()) slipsOf.set(s.attempt_id, [...(slipsOf.get(s.attempt_id) ?? []), s])
+  return attempts.map(a => ({ id: a.id, stored: a.slip_set, recounted: slipSetOf(slipsOf.get(a.id) ?? []) }))
+}
+
+describe('migration 0007', () => {
+  it('backfills each attempt\'s slip set from its slip rows, across more than one batch, and the counts follow', async () => {
+    const db = open()
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    const before = await migrator.migrateTo('0006_practice_extra')
+    expect(before.error).toBeUndefined()
+    const { cohorts, ids, caseId } = await people(db, 40)
+    // 5,200 attempts: the backfill works in ranges of 5,000 attempt ids
+    const histories = fc.sample(fc.array(fc.record({ slips: fc.array(slipArb, { maxLength: 4 }) }), { minLength: 130, maxLength: 130 }), { numRuns: ids.length, seed: 70 })
+    const raw = db as unknown as Kysely<any>
+    const made = histories.flatMap((history, i) => history.map((a, j) => ({ i, slips: a.slips, values: (({ slip_set: _notYet, ...v }) => v)(attemptValues({
+      learnerId: ids[i]!, cohortId: cohorts[i % 2]!, submittedAt: `2026-10-${String(1 + (j % 28)).padStart(2, '0')}T10:00:00.000Z`, slips: a.slips,
+    }, caseId)) })))
+    await raw.transaction().execute(async (trx) => {
+      for (let k = 0; k < made.length; k += 200) {
+        const chunk = made.slice(k, k + 200)
+        const inserted = await trx.insertInto('attempts').values(chunk.map(m => m.values)).returning('id').execute()
+        const slipRows = chunk.flatMap((m, j) => m.slips.map(s => ({
+          attempt_id: inserted[j]!.id, learner_id: ids[m.i]!, cohort_id: cohorts[m.i % 2]!, kind: 'practice', quiz_id: null,
+          template_id: 'so-palsy-left-standard', condition: 'so-palsy', code: s.code, eye: s.eye ?? null, created_at: m.values.submitted_at,
+        })))
+        for (let r = 0; r < slipRows.length; r += 300) await trx.insertInto('attempt_slips').values(slipRows.slice(r, r + 300)).execute()
+      }
+    })
+    await migrateToLatest(db)
+
+    const rows = await storedAndRecounted(db)
+    expect(rows).toHaveLength(5200)
+    expect(rows.filter(r => r.stored !== r.recounted)).toEqual([])
+    expect(rows.some(r => r.stored.includes(' '))).toBe(true)
+    const counts = await learnerCounts(db, reviewFilterQuery.parse({}), all)
+    histories.forEach((h, i) => expect(counts.get(ids[i]!)).toEqual(countsFromHistory(h)))
+
+    // and back down: the column goes, 0004's per-learner index returns
+    // (later migrations are undone first)
+    const down = await migrator.migrateTo('0006_practice_extra')
+    expect(down.error).toBeUndefined()
+    expect(down.results?.find(r => r.migrationName === '0007_review_learners')).toMatchObject({ direction: 'Down', status: 'Success' })
+    const columns = sqlite.prepare('select name from pragma_table_info(\'attempts\')').all() as { name: string }[]
+    expect(columns.map(c => c.name)).not.toContain('slip_set')
+    expect(sqlite.prepare('select name from sqlite_master where type = \'index\' and name = \'attempts_rv_learner\'').get()).toBeTruthy()
+  })
+})
+
+describe('query plans for who needs help', () => {
+  const plan = (q: CompiledQuery) => (sqlite.prepare(`explain query plan ${q.sql}`).all(...q.parameters as unknown[]) as { detail: string }[]).map(r => r.detail)
+
+  it('counts per learner from attempts_rv_slip_set alone, grouped without a sort, for every scope and filter', async () => {
+    const db = open()
+    await migrateToLatest(db)
+    const { cohorts } = await people(db, 2)
+    const views: [Record<string, string>, ReviewScope][] = [
+      [{}, all], [{}, { ...all, cohortIds: [cohorts[0]!] }], [{}, { ...all, cohortIds: cohorts }],
+      [{ kind: 'quiz', from: '2026-10-01', to: '2026-10-31' }, all], [{ template: 'so-palsy-left', condition: 'so-palsy' }, { ...all, cohortIds: [cohorts[1]!] }],
+    ]
+    for (const [filters, scope] of views) {
+      queries = []
+      await learnerCounts(db, reviewFilterQuery.parse(filters), scope)
+      expect(queries).toHaveLength(1)
+      const steps = plan(queries[0]!)
+      expect(steps.join(' | '), JSON.stringify(filters)).toMatch(/^SEARCH attempts USING COVERING INDEX attempts_rv_slip_set \(cohort_id/)
+      expect(steps.join(' | ')).not.toMatch(/TEMP B-TREE/)
+    }
+  })
+
+  it('finds the examples from attempt_slips_rv_learner, reading only the listed learners', async () => {
+    const db = open()
+    await migrateToLatest(db)
+    const { cohorts, ids, caseId } = await people(db, 2)
+    // two one-eye reversals and three dial figures for the first learner: two patterns, so two example subqueries
+    for (const [k, slips] of [[{ code: 'direction-reversed', eye: 'LE' }], [{ code: 'direction-reversed', eye: 'LE' }], [{ code: 'dial-value-as-amount', eye: 'RE' }], [{ code: 'dial-value-as-amount', eye: 'RE' }], [{ code: 'dial-value-as-amount', eye: 'RE' }]].entries()) {
+      const values = attemptValues({ learnerId: ids[0]!, cohortId: cohorts[0]!, submittedAt: `2026-10-0${k + 1}T10:00:00.000Z`, slips: slips as Slip[] }, caseId)
+      const { id } = await db.insertInto('attempts').values(values).returning('id').executeTakeFirstOrThrow()
+      await db.insertInto('attempt_slips').values((slips as Slip[]).map(s => ({ attempt_id: id, learner_id: ids[0]!, cohort_id: cohorts[0]!, kind: 'practice' as const, quiz_id: null, template_id: 'so-palsy-left-standard', condition: 'so-palsy', code: s.code, eye: s.eye ?? null, created_at: values.submitted_at }))).execute()
+    }
+    queries = []
+    const { items } = await needsHelp(db, reviewFilterQuery.parse({}), all, 50)
+    expect(items.map(i => i.patterns.map(p => [p.code, p.examples.length]))).toEqual([[['left-right-rule-swapped', 2], ['dial-value-as-amount', 3]]])
+    const examples = queries.at(-1)!
+    expect(examples.sql).toMatch(/union all/)
+    const steps = plan(examples).filter(s => s.startsWith('SEARCH') || s.startsWith('SCAN attempt'))
+    expect(steps).toHaveLength(2)
+    for (const s of steps) expect(s).toMatch(/^SEARCH attempt_slips USING COVERING INDEX attempt_slips_rv_learner \(cohort_id=\? AND learner_id=\? AND code=\?/)
+  })
+})
