@@ -43,6 +43,8 @@ export default defineNuxtConfig({
   css: ['~/assets/css/main.css'],
   runtimeConfig: {
     dbPath: '.data/cyclodial.sqlite',
+    // Uploaded fundus photographs; empty = a fundus-photos folder beside the database.
+    fundusPhotoDir: '',
     seedDemo: '',
     mailCatcher: '',
     mailCatcherPort: '',

@@ -341,6 +341,55 @@ export interface PracticeSetLearnersTable {
   mail_job_id: number | null
 }
 
+/** A tutor's fundus photograph: the file sits under the data folder, never in public/. */
+export interface FundusPhotosTable {
+  id: Generated<number>
+  owner_id: number | null
+  title: string
+  eye: 'RE' | 'LE'
+  notes: string | null
+  /** File name inside the photo folder (random; never the uploaded name). */
+  storage_name: string
+  mime: 'image/jpeg' | 'image/png'
+  byte_size: number
+  width: number
+  height: number
+  /** Reference marks in image pixels (x right, y down); null until the tutor marks them. */
+  disc_x: number | null
+  disc_y: number | null
+  fovea_x: number | null
+  fovea_y: number | null
+  reference_angle: number | null
+  marked_at: Timestamp | null
+  created_at: Timestamp
+  updated_at: Timestamp
+}
+
+export interface FundusPhotoCohortsTable {
+  photo_id: number
+  cohort_id: number
+}
+
+/** A learner's disc–fovea measurement on a case's fundus or an uploaded photograph. */
+export interface FundusAttemptsTable {
+  id: Generated<number>
+  learner_id: number
+  cohort_id: number | null
+  kind: AttemptKind
+  case_id: number | null
+  photo_id: number | null
+  quiz_id: number | null
+  quiz_item_id: number | null
+  /** FUNDUS_VERSION that drew a case's fundus (null for photographs). */
+  fundus_version: number | null
+  marks_json: string
+  result_json: string
+  score: number
+  re_angle: number | null
+  le_angle: number | null
+  submitted_at: Timestamp
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -364,6 +413,9 @@ export interface Database {
   quiz_mark_overrides: QuizMarkOverridesTable
   practice_sets: PracticeSetsTable
   practice_set_learners: PracticeSetLearnersTable
+  fundus_photos: FundusPhotosTable
+  fundus_photo_cohorts: FundusPhotoCohortsTable
+  fundus_attempts: FundusAttemptsTable
 }
 
 export type User = Selectable<UsersTable>
@@ -379,3 +431,4 @@ export type AttemptRow = Selectable<AttemptsTable>
 export type QuizRow = Selectable<QuizzesTable>
 export type QuizItemRow = Selectable<QuizItemsTable>
 export type QuizSittingRow = Selectable<QuizSittingsTable>
+export type FundusPhotoRow = Selectable<FundusPhotosTable>

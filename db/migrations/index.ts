@@ -5,6 +5,7 @@ import type { Migration, MigrationProvider } from 'kysely'
 import * as m0001 from './0001_init'
 import * as m0002 from './0002_practice'
 import * as m0004 from './0004_review'
+import * as m0005 from './0005_fundus'
 import * as m0006 from './0006_practice_extra'
 import * as m0007 from './0007_review_learners'
 import * as m0003 from './0003_quizzes'
@@ -14,6 +15,7 @@ export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
   '0002_practice': m0002,
   '0004_review': m0004,
+  '0005_fundus': m0005,
   '0006_practice_extra': m0006,
   '0007_review_learners': m0007,
   '0003_quizzes': m0003,

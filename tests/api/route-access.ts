@@ -76,4 +76,13 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/review/practice-sets': ['tutor', 'lecturer'],
   'GET /api/review/practice-sets/[id]': ['tutor', 'lecturer'],
   'GET /api/practice-sets': ['student'],
+  'GET /api/fundus/cases/[id]': 'signed-in',
+  'POST /api/fundus/cases/[id]/attempts': 'signed-in',
+  'GET /api/fundus/photos': 'signed-in',
+  'POST /api/fundus/photos': ['tutor', 'lecturer', 'admin'],
+  'GET /api/fundus/photos/[id]': 'signed-in',
+  'DELETE /api/fundus/photos/[id]': ['tutor', 'lecturer', 'admin'],
+  'GET /api/fundus/photos/[id]/image': 'signed-in',
+  'PUT /api/fundus/photos/[id]/reference': ['tutor', 'lecturer', 'admin'],
+  'POST /api/fundus/photos/[id]/attempts': 'signed-in',
 }

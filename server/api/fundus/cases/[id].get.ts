@@ -1,0 +1,23 @@
+// The fundus photographs of one of the caller's practice cases: the dial-free
+// pictures, earlier measurements with their feedback, and — once both a fundus
+// measurement and a double Maddox rod record exist — subjective against objective.
+import { idParam } from '#shared/schemas/admin'
+import { compareWithDmr } from '~~/server/utils/fundus/compare'
+import { fundusForCase } from '~~/server/utils/fundus/generate'
+import { toFundusPresentation } from '~~/server/utils/fundus/presentation'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireSignedIn(event)
+  const { id } = paramsAs(event, idParam)
+  const { row, case: c } = await ownCaseForFundus(user, id)
+  const truth = fundusForCase(c)
+  const attempts = await listFundusAttempts(user.id, { caseId: row.id })
+  const dmrRecorded = await dmrRecordedOn(row.id)
+  return {
+    caseId: row.id,
+    presentation: toFundusPresentation(truth),
+    attempts,
+    dmrRecorded,
+    comparison: dmrRecorded && attempts.length ? compareWithDmr(c, truth) : null,
+  }
+})

@@ -1,0 +1,12 @@
+// One fundus photograph's details, for anyone allowed to see it (others: 404).
+import { NORMAL_RANGES } from '#shared/engine/fundus/normals'
+import { idParam } from '#shared/schemas/admin'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireSignedIn(event)
+  const { id } = paramsAs(event, idParam)
+  const photo = await fundusPhotoFor(user, id)
+  const [view] = await fundusPhotoViews(user, [photo])
+  const attempts = await listFundusAttempts(user.id, { photoId: id })
+  return { photo: view!, attempts, normalRanges: NORMAL_RANGES }
+})

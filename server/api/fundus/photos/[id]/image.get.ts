@@ -1,0 +1,21 @@
+// The photograph's bytes, only for signed-in people allowed to see it (others: 404).
+// Served from the data folder, never from public/, and never cached by shared caches.
+import { readFile } from 'node:fs/promises'
+import { idParam } from '#shared/schemas/admin'
+import { fundusPhotoDirFor, storagePath } from '~~/server/utils/fundus/photoFile'
+
+export default defineEventHandler(async (event) => {
+  const user = await requireSignedIn(event)
+  const { id } = paramsAs(event, idParam)
+  const photo = await fundusPhotoFor(user, id)
+  const bytes = await readFile(storagePath(fundusPhotoDirFor(useRuntimeConfig()), photo.storage_name)).catch(() => null)
+  if (!bytes) notFound('That fundus photograph\'s file')
+  setResponseHeaders(event, {
+    'Content-Type': photo.mime,
+    'Content-Length': String(bytes.length),
+    'Cache-Control': 'private, no-store',
+    'Content-Disposition': 'inline',
+    'X-Content-Type-Options': 'nosniff',
+  })
+  return bytes
+})
