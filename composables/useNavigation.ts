@@ -9,6 +9,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/practice', label: 'Practice' },
     { to: '/practice/history', label: 'History' },
     { to: '/student/quizzes', label: 'Quizzes' },
+    { to: '/fundus/photos', label: 'Fundus photographs' },
   ],
   tutor: [
     { to: '/tutor', label: 'Home' },
@@ -16,6 +17,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
     { to: '/review', label: 'Slip patterns' },
+    { to: '/fundus/photos', label: 'Fundus photographs' },
   ],
   lecturer: [
     { to: '/lecturer', label: 'Home' },
@@ -23,6 +25,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/quizzes', label: 'Quizzes' },
     { to: '/record-checker', label: 'Record checker' },
     { to: '/review', label: 'Slip patterns' },
+    { to: '/fundus/photos', label: 'Fundus photographs' },
   ],
   admin: [
     { to: '/admin', label: 'Overview' },
@@ -31,6 +34,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/admin/outbox', label: 'Outbox' },
     { to: '/admin/audit', label: 'Audit log' },
     { to: '/record-checker', label: 'Record checker' },
+    { to: '/fundus/photos', label: 'Fundus photographs' },
   ],
 }
 
