@@ -2,24 +2,29 @@ import { describe, expect, inject, it } from 'vitest'
 import { discFoveaAngle } from '#shared/engine/fundus/geometry'
 import type { FundusPicture } from '#shared/engine/fundus/picture'
 import type { CaseFundusAttemptReply, CaseFundusView } from '#shared/types/fundus'
+import { generateCase } from '~~/server/utils/engine/generator'
 import { DEMO, signedIn } from '../support/client'
-import { insertDmrAttempt, insertPracticeCase } from '../support/fundus'
+import { caseSecrets, expectNoCaseSecrets } from '../support/secrecy'
+import { recordDmr, startPracticeCase } from '../support/fundus'
 
 const baseURL = inject('baseURL')
-const dbPath = inject('dbPath')
 
 const precise = (p: FundusPicture, finding: string) => ({ disc: { x: p.disc.x, y: p.disc.y }, fovea: { x: p.fovea.x, y: p.fovea.y }, finding })
 
 describe('fundus of a practice case', () => {
   it('gives the owner the dial-free pictures of both eyes, and 404 to anyone else', async () => {
-    const caseId = insertPracticeCase(dbPath, DEMO.student, 'so-palsy-right-standard', 'api-fundus-1')
     const student = await signedIn(baseURL, DEMO.student)
+    const caseId = await startPracticeCase(student, 'so-palsy-right', 'standard', 'api-fundus-1')
     const reply = await student.get<CaseFundusView>(`/api/fundus/cases/${caseId}`)
     expect(reply.status).toBe(200)
     expect(reply.body.presentation.eyes.RE.eye).toBe('RE')
     expect(reply.body.presentation.eyes.LE.fovea.x).toBeGreaterThan(reply.body.presentation.eyes.LE.disc.x) // LE: fovea right of the disc
     const text = JSON.stringify(reply.body.presentation)
     expect(text).not.toMatch(/torsion|angle|excyclo|incyclo|palsy|oblique|normal|finding/i)
+    // the picture's own geometry is the only place case-derived numbers may appear
+    expectNoCaseSecrets(reply.body, caseSecrets(generateCase('so-palsy-right-standard', 'api-fundus-1'), { templateHidden: false }), 'GET /api/fundus/cases/:id', {
+      allowNumbersAt: [/^presentation\.eyes\.(RE|LE)\.(frame|field|disc|fovea)\./, /(^|\.)(fundusPresentationVersion|fundusVersion)$/],
+    })
     expect(reply.body.attempts).toEqual([])
     expect(reply.body.comparison).toBeNull()
 
@@ -32,8 +37,8 @@ describe('fundus of a practice case', () => {
   })
 
   it('grades precise marks at the case angle within a degree, and shows the normal range and sources afterwards', async () => {
-    const caseId = insertPracticeCase(dbPath, DEMO.student, 'bilateral-so-palsy-standard', 'api-fundus-2')
     const student = await signedIn(baseURL, DEMO.student)
+    const caseId = await startPracticeCase(student, 'bilateral-so-palsy', 'standard', 'api-fundus-2')
     const view = (await student.get<CaseFundusView>(`/api/fundus/cases/${caseId}`)).body
     const { RE, LE } = view.presentation.eyes
     const reply = await student.post<CaseFundusAttemptReply>(`/api/fundus/cases/${caseId}/attempts`, { eyes: { RE: precise(RE, 'excyclo'), LE: precise(LE, 'excyclo') } })
@@ -55,11 +60,11 @@ describe('fundus of a practice case', () => {
   })
 
   it('explains the mismatch on a long-standing palsy once the double Maddox rod is recorded too', async () => {
-    const caseId = insertPracticeCase(dbPath, DEMO.student, 'long-standing-so-palsy-standard', 'api-fundus-3')
     const student = await signedIn(baseURL, DEMO.student)
+    const caseId = await startPracticeCase(student, 'long-standing-so-palsy', 'standard', 'api-fundus-3')
     const view = (await student.get<CaseFundusView>(`/api/fundus/cases/${caseId}`)).body
     const { RE, LE } = view.presentation.eyes
-    insertDmrAttempt(dbPath, caseId)
+    await recordDmr(student, caseId)
     const reply = await student.post<CaseFundusAttemptReply>(`/api/fundus/cases/${caseId}/attempts`, { eyes: { RE: precise(RE, 'within-normal'), LE: precise(LE, 'excyclo') } })
     expect(reply.status).toBe(201)
     expect(reply.body.comparison?.underReports).toBe(true)
@@ -69,8 +74,8 @@ describe('fundus of a practice case', () => {
   })
 
   it('refuses bad marks with the field named and stores nothing', async () => {
-    const caseId = insertPracticeCase(dbPath, DEMO.student, 'normal-standard', 'api-fundus-4')
     const student = await signedIn(baseURL, DEMO.student)
+    const caseId = await startPracticeCase(student, 'normal', 'standard', 'api-fundus-4')
     const view = (await student.get<CaseFundusView>(`/api/fundus/cases/${caseId}`)).body
     const { RE } = view.presentation.eyes
     const missing = await student.post(`/api/fundus/cases/${caseId}/attempts`, { eyes: { RE: precise(RE, 'within-normal') } })

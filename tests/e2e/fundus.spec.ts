@@ -4,10 +4,9 @@ import { findingForAngle } from '#shared/engine/fundus/normals'
 import type { FundusPicture } from '#shared/engine/fundus/picture'
 import type { Eye } from '#shared/engine/types'
 import type { CaseFundusView } from '#shared/types/fundus'
-import { SYNTHETIC_PHOTO, insertPracticeCase, syntheticPng } from '../support/fundus'
+import { SYNTHETIC_PHOTO, syntheticPng } from '../support/fundus'
 import { signIn } from './helpers'
 
-const dbPath = () => process.env.E2E_DB_PATH!
 const LABEL: Record<string, string> = { 'excyclo': 'Excyclotorsion', 'incyclo': 'Incyclotorsion', 'within-normal': 'Within the normal range' }
 
 async function canvasPoint(page: Page, p: { x: number, y: number }, width: number) {
@@ -19,8 +18,10 @@ async function canvasPoint(page: Page, p: { x: number, y: number }, width: numbe
 test.use({ hasTouch: true })
 
 test('a student marks both eyes of a generated case precisely, by pointer, touch and keyboard, and agrees with the case within a degree', async ({ page }) => {
-  const caseId = insertPracticeCase(dbPath(), 'student@cyclodial.test', 'long-standing-so-palsy-standard', `e2e-fundus-${Date.now()}`)
   await signIn(page, 'student@cyclodial.test')
+  const started = await page.request.post('/api/practice', { data: { template: 'long-standing-so-palsy', difficulty: 'standard', seed: 'e2e-fundus-1' } })
+  expect(started.status()).toBe(201)
+  const caseId = (await started.json()).id as number
   await page.goto(`/fundus/cases/${caseId}`)
   await expect(page.getByRole('heading', { level: 1, name: 'Fundus photographs' })).toBeVisible()
   const view = await (await page.request.get(`/api/fundus/cases/${caseId}`)).json() as CaseFundusView

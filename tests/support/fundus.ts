@@ -1,9 +1,9 @@
-// Test helpers for the fundus features: practice cases written straight into the
-// test server's SQLite file (the same rows the practice routes write), and small
-// synthetic fundus photographs drawn with sharp, with known disc and fovea.
+// Test helpers for the fundus features: practice cases through the practice API,
+// row counts read from the test server's SQLite file, and small synthetic fundus
+// photographs drawn with sharp, with a known disc centre and fovea.
 import Database from 'better-sqlite3'
 import sharp from 'sharp'
-import { GENERATOR_VERSION, generateCase } from '~~/server/utils/engine/generator'
+import type { Client } from './client'
 
 function withDb<T>(dbPath: string, work: (db: Database.Database) => T): T {
   const db = new Database(dbPath)
@@ -16,32 +16,17 @@ function withDb<T>(dbPath: string, work: (db: Database.Database) => T): T {
   }
 }
 
-export function userId(dbPath: string, email: string): number {
-  return withDb(dbPath, db => (db.prepare('select id from users where email = ?').get(email) as { id: number }).id)
+/** Start a practice case through the practice API, as a learner would. */
+export async function startPracticeCase(client: Client, template: string, difficulty: 'standard' | 'challenging', seed: string): Promise<number> {
+  const reply = await client.post<{ id: number }>('/api/practice', { template, difficulty, seed })
+  if (reply.status !== 201) throw new Error(`could not start a practice case: ${reply.status} ${JSON.stringify(reply.body)}`)
+  return reply.body.id
 }
 
-/** A practice case owned by `email`, as the practice routes store one. */
-export function insertPracticeCase(dbPath: string, email: string, templateId: string, seed: string, purpose = 'practice'): number {
-  const c = generateCase(templateId, seed)
-  const now = new Date().toISOString()
-  return withDb(dbPath, (db) => {
-    const owner = (db.prepare('select id from users where email = ?').get(email) as { id: number }).id
-    const info = db.prepare(`insert into cases (owner_id, purpose, template_id, template_hidden, seed, generator_version, condition, difficulty, mode, read_scale, trial_count, created_at, updated_at)
-      values (?, ?, ?, 0, ?, ?, ?, ?, 'learner-turns', 0, 0, ?, ?)`).run(owner, purpose, templateId, seed, GENERATOR_VERSION, c.condition, c.difficulty ?? 'standard', now, now)
-    return Number(info.lastInsertRowid)
-  })
-}
-
-/** A minimal double Maddox rod attempt on a case (what recordAttempt stores), so the case counts as recorded. */
-export function insertDmrAttempt(dbPath: string, caseId: number): void {
-  const now = new Date().toISOString()
-  withDb(dbPath, (db) => {
-    const row = db.prepare('select owner_id, template_id, seed, generator_version, condition, difficulty, mode from cases where id = ?').get(caseId) as Record<string, unknown>
-    db.prepare(`insert into attempts (case_id, learner_id, cohort_id, kind, template_id, condition, difficulty, mode, seed, generator_version, gaze, distance,
-      readings_json, prisms_json, record_text, parsed_json, marks_json, score, points_earned, points_possible, slips_json, truth_json, submitted_at)
-      values (?, ?, null, 'practice', ?, ?, ?, ?, ?, ?, 'primary', 'near', '{"RE":90,"LE":90}', '[]', 'DMR N primary: RE nil LE nil', '{}', '[]', 0, 0, 10, '[]', '{}', ?)`)
-      .run(caseId, row.owner_id, row.template_id, row.condition, row.difficulty, row.mode, row.seed, row.generator_version, now)
-  })
+/** Record a double Maddox rod result on the case through the practice API. */
+export async function recordDmr(client: Client, caseId: number): Promise<void> {
+  const reply = await client.post(`/api/practice/${caseId}/attempts`, { gaze: 'primary', distance: 'near', readings: { RE: 90, LE: 90 }, record: 'DMR, near, primary position: RE no torsion, LE no torsion.' })
+  if (reply.status !== 201) throw new Error(`could not record an attempt: ${reply.status} ${JSON.stringify(reply.body)}`)
 }
 
 export function countRows(dbPath: string, table: 'fundus_photos' | 'fundus_attempts' | 'fundus_photo_cohorts'): number {

@@ -1,24 +1,14 @@
-// Loading a stored case for its fundus: only the owner's own practice cases, and the
-// case rebuilt exactly as stored (template + seed + generator version, or the
+// Loading a stored case for its fundus: only the owner's own practice cases, rebuilt
+// exactly as stored (regenerateCase: template + seed + generator version, or the
 // hand-authored snapshot), never from a newer generator.
 
 import type { SessionUserData } from '#shared/auth/roles'
 import type { CaseRow } from '~~/db/schema'
-import { caseFromSpec, generateCase } from '../engine/generator'
 import type { Case } from '../engine/types'
+import { regenerateCase } from '../cases'
 
 /** Purposes whose truth a learner may see straight after measuring (not quiz cases). */
 const OPEN_PURPOSES = ['practice', 'preview'] as const
-
-export function rebuildCaseForFundus(row: Pick<CaseRow, 'template_id' | 'spec_json' | 'seed' | 'generator_version'>): Case {
-  if (row.spec_json) {
-    const built = caseFromSpec(JSON.parse(row.spec_json))
-    if (!built.ok) throw new Error('A stored hand-authored case no longer validates.')
-    return built.case
-  }
-  if (!row.template_id) throw new Error('A stored case has neither a template nor a spec.')
-  return generateCase(row.template_id, row.seed, row.generator_version)
-}
 
 /** The caller's own practice case, or a 404 for anyone else's (or a quiz case). */
 export async function ownCaseForFundus(user: SessionUserData, id: number): Promise<{ row: CaseRow, case: Case }> {
@@ -29,7 +19,7 @@ export async function ownCaseForFundus(user: SessionUserData, id: number): Promi
     .where('purpose', 'in', [...OPEN_PURPOSES])
     .executeTakeFirst()
   if (!row) notFound('That case')
-  return { row, case: rebuildCaseForFundus(row) }
+  return { row, case: regenerateCase(row) }
 }
 
 /** Whether the learner has recorded a double Maddox rod attempt on this case yet. */
