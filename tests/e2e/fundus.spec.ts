@@ -22,7 +22,10 @@ test('a student marks both eyes of a generated case precisely, by pointer, touch
   const started = await page.request.post('/api/practice', { data: { template: 'long-standing-so-palsy', difficulty: 'standard', seed: 'e2e-fundus-1' } })
   expect(started.status()).toBe(201)
   const caseId = (await started.json()).id as number
-  await page.goto(`/fundus/cases/${caseId}`)
+  // from the bench, beside the trial frame
+  await page.goto(`/practice/${caseId}`)
+  await page.getByRole('main').getByRole('link', { name: 'Fundus photographs' }).click()
+  await expect(page).toHaveURL(new RegExp(`/fundus/cases/${caseId}$`))
   await expect(page.getByRole('heading', { level: 1, name: 'Fundus photographs' })).toBeVisible()
   const view = await (await page.request.get(`/api/fundus/cases/${caseId}`)).json() as CaseFundusView
 
