@@ -6,14 +6,11 @@ export class Client {
   private cookies = new Map<string, string>()
   constructor(readonly baseURL: string) {}
 
-  async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string, form?: FormData, headers?: Record<string, string> } = {}): Promise<Reply<T>> {
+  async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string, headers?: Record<string, string> } = {}): Promise<Reply<T>> {
     const headers: Record<string, string> = { accept: 'application/json', ...init.headers }
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
-    let payload: string | FormData | undefined
-    if (init.form !== undefined) {
-      payload = init.form // fetch sets the multipart content type and boundary
-    }
-    else if (init.raw !== undefined) {
+    let payload: string | undefined
+    if (init.raw !== undefined) {
       payload = init.raw
       headers['content-type'] ??= 'application/json'
     }
@@ -51,7 +48,6 @@ export class Client {
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }
   put<T = any>(path: string, body?: unknown) { return this.request<T>('PUT', path, body) }
   delete<T = any>(path: string) { return this.request<T>('DELETE', path) }
-  postForm<T = any>(path: string, form: FormData) { return this.request<T>('POST', path, undefined, { form }) }
 
   /** Raw bytes of a GET (images and other downloads). */
   async bytes(path: string): Promise<{ status: number, body: Buffer, headers: Headers }> {
