@@ -8,6 +8,16 @@ import type { FundusScene, Vessel } from '#shared/engine/fundus/scene'
 const mix = (a: number[], b: number[], t: number) => a.map((v, i) => Math.round(v + (b[i]! - v) * t))
 const rgb = (c: number[], alpha = 1) => `rgba(${c[0]}, ${c[1]}, ${c[2]}, ${alpha})`
 
+/** A soft round patch: a radial gradient through `stops` ([offset, colour]), filled as a circle. */
+function blot(ctx: CanvasRenderingContext2D, x: number, y: number, r: number, stops: [number, string][]) {
+  const g = ctx.createRadialGradient(x, y, 0, x, y, r)
+  for (const [at, colour] of stops) g.addColorStop(at, colour)
+  ctx.fillStyle = g
+  ctx.beginPath()
+  ctx.arc(x, y, r, 0, Math.PI * 2)
+  ctx.fill()
+}
+
 const LIGHT_FUNDUS = [222, 108, 52]
 const DARK_FUNDUS = [150, 56, 28]
 
@@ -54,25 +64,10 @@ export function paintFundus(ctx: CanvasRenderingContext2D, picture: FundusPictur
   ctx.fillRect(0, 0, frame.width, frame.height)
 
   // soft-edged blotches: the choroid showing through the pigment epithelium
-  for (const m of scene.mottles) {
-    const g = ctx.createRadialGradient(m.x, m.y, 0, m.x, m.y, m.r)
-    g.addColorStop(0, m.light ? 'rgba(255, 170, 110, 0.07)' : 'rgba(90, 24, 8, 0.08)')
-    g.addColorStop(1, 'rgba(0, 0, 0, 0)')
-    ctx.fillStyle = g
-    ctx.beginPath()
-    ctx.arc(m.x, m.y, m.r, 0, Math.PI * 2)
-    ctx.fill()
-  }
+  for (const m of scene.mottles) blot(ctx, m.x, m.y, m.r, [[0, m.light ? 'rgba(255, 170, 110, 0.07)' : 'rgba(90, 24, 8, 0.08)'], [1, 'rgba(0, 0, 0, 0)']])
 
   const mac = scene.macula
-  const macula = ctx.createRadialGradient(mac.x, mac.y, 0, mac.x, mac.y, mac.radius)
-  macula.addColorStop(0, 'rgba(70, 18, 6, 0.55)')
-  macula.addColorStop(0.35, 'rgba(90, 24, 8, 0.35)')
-  macula.addColorStop(1, 'rgba(90, 24, 8, 0)')
-  ctx.fillStyle = macula
-  ctx.beginPath()
-  ctx.arc(mac.x, mac.y, mac.radius, 0, Math.PI * 2)
-  ctx.fill()
+  blot(ctx, mac.x, mac.y, mac.radius, [[0, 'rgba(70, 18, 6, 0.55)'], [0.35, 'rgba(90, 24, 8, 0.35)'], [1, 'rgba(90, 24, 8, 0)']])
 
   const d = scene.disc
   ctx.save()
@@ -96,13 +91,7 @@ export function paintFundus(ctx: CanvasRenderingContext2D, picture: FundusPictur
   for (const v of scene.vessels.filter(v => v.kind === 'artery')) paintVessel(ctx, v)
 
   const f = scene.fovea
-  const pit = ctx.createRadialGradient(f.x, f.y, 0, f.x, f.y, 0.12)
-  pit.addColorStop(0, 'rgba(52, 12, 4, 0.75)')
-  pit.addColorStop(1, 'rgba(52, 12, 4, 0)')
-  ctx.fillStyle = pit
-  ctx.beginPath()
-  ctx.arc(f.x, f.y, 0.12, 0, Math.PI * 2)
-  ctx.fill()
+  blot(ctx, f.x, f.y, 0.12, [[0, 'rgba(52, 12, 4, 0.75)'], [1, 'rgba(52, 12, 4, 0)']])
   ctx.fillStyle = 'rgba(255, 236, 214, 0.75)'
   ctx.beginPath()
   ctx.arc(f.x, f.y, 0.022, 0, Math.PI * 2)
