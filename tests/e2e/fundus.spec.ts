@@ -73,7 +73,7 @@ test('a student marks both eyes of a generated case precisely, by pointer, touch
 
 test('a tutor uploads and marks a photograph; a student of the cohort measures it; another cohort cannot fetch it', async ({ page, browser }) => {
   await signIn(page, 'tutor@cyclodial.test')
-  await page.getByRole('link', { name: 'Fundus photographs' }).click()
+  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Fundus photographs' }).click()
   await expect(page.getByText(/must be de-identified|De-identified and with consent only/).first()).toBeVisible()
   await page.getByLabel('Photograph (JPEG or PNG, at most 10 MB)').setInputFiles({ name: 'teaching-fundus.png', mimeType: 'image/png', buffer: await syntheticPng() })
   await page.getByLabel('Title').fill('Kestrel teaching fundus')

@@ -3,7 +3,7 @@ import { signIn } from './helpers'
 
 test('a tutor checks a written record against a known finding', async ({ page }) => {
   await signIn(page, 'tutor@cyclodial.test')
-  await page.getByRole('link', { name: 'Record checker' }).click()
+  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Record checker' }).click()
   await expect(page.getByRole('heading', { level: 1 })).toHaveText('Record checker')
   await expect(page.getByRole('note', { name: 'Educational simulation' }).first()).toBeVisible()
 
