@@ -390,6 +390,28 @@ export interface FundusAttemptsTable {
   submitted_at: Timestamp
 }
 
+/** 0009: a student's autosaved marks on a fundus quiz item. */
+export interface QuizFundusDraftsTable {
+  quiz_item_id: number
+  student_id: number
+  quiz_id: number
+  draft_json: string
+  saved_at: Timestamp
+}
+
+/** 0009: a tutor's change to one criterion of a fundus quiz attempt, with the reason. */
+export interface QuizFundusOverridesTable {
+  id: Generated<number>
+  fundus_attempt_id: number
+  quiz_id: number
+  criterion: string
+  previous_score: number
+  score: number
+  reason: string
+  actor_id: number | null
+  created_at: Timestamp
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -416,6 +438,8 @@ export interface Database {
   fundus_photos: FundusPhotosTable
   fundus_photo_cohorts: FundusPhotoCohortsTable
   fundus_attempts: FundusAttemptsTable
+  quiz_fundus_drafts: QuizFundusDraftsTable
+  quiz_fundus_overrides: QuizFundusOverridesTable
 }
 
 export type User = Selectable<UsersTable>
@@ -432,3 +456,4 @@ export type QuizRow = Selectable<QuizzesTable>
 export type QuizItemRow = Selectable<QuizItemsTable>
 export type QuizSittingRow = Selectable<QuizSittingsTable>
 export type FundusPhotoRow = Selectable<FundusPhotosTable>
+export type FundusAttemptRow = Selectable<FundusAttemptsTable>

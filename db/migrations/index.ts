@@ -10,6 +10,7 @@ import * as m0006 from './0006_practice_extra'
 import * as m0007 from './0007_review_learners'
 import * as m0003 from './0003_quizzes'
 import * as m0008 from './0008_invitation_name'
+import * as m0009 from './0009_quiz_fundus'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
@@ -20,6 +21,7 @@ export const migrations: Record<string, Migration> = {
   '0007_review_learners': m0007,
   '0003_quizzes': m0003,
   '0008_invitation_name': m0008,
+  '0009_quiz_fundus': m0009,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

@@ -89,7 +89,8 @@ async function sit(db: Kysely<Database>, quiz: QuizRow, items: QuizItemRow[], st
   await db.insertInto('quiz_sittings').values({ quiz_id: quiz.id, student_id: studentId, started_at: started, deadline_at: sittingDeadline(quiz, started), finished_at: null }).execute()
   let clock = startMs
   for (const item of items) {
-    const row = await ensureQuizCase(db, quiz, item, studentId, started)
+    // the demo quizzes hold double Maddox rod items only, which always have a case
+    const row = (await ensureQuizCase(db, quiz, item, studentId, started))!
     const config = JSON.parse(item.config_json) as DmrItemConfig
     const patient = buildItemCase(config, quiz.seed, item.id, studentId).case
     clock += (6 + ((studentId * 7 + item.position * 3) % 9)) * 60_000

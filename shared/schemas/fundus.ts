@@ -46,3 +46,24 @@ export const photoUploadFields = z.object({
   consent: z.literal('yes', { error: 'Confirm that the photograph is de-identified and used with consent.' }),
 })
 export type PhotoUploadFields = z.infer<typeof photoUploadFields>
+
+/** One eye of an autosaved fundus item: whatever the learner has placed so far. */
+export const fundusDraftEyeSchema = z.object({
+  disc: pointSchema.nullable().default(null),
+  fovea: pointSchema.nullable().default(null),
+  finding: fundusFindingSchema.nullable().default(null),
+}, { error: 'Each eye of the draft is { disc, fovea, finding } (each may be null).' })
+
+export const fundusDraftEyes = z.object({
+  RE: fundusDraftEyeSchema.optional(),
+  LE: fundusDraftEyeSchema.optional(),
+}, { error: 'The draft\'s eyes are { RE?, LE? }.' }).strict()
+
+/** A fundus quiz item handed in: the eyes the item asks for, each fully marked (the route checks which). */
+export const fundusItemAttemptBody = z.object({
+  eyes: z.object({
+    RE: fundusEyeMarksSchema.optional(),
+    LE: fundusEyeMarksSchema.optional(),
+  }, { error: 'Send the marks as { eyes: { RE?, LE? } }.' }).strict(),
+}, { error: 'Send the marks as { eyes: { RE?, LE? } }.' })
+export type FundusItemAttemptBody = z.infer<typeof fundusItemAttemptBody>

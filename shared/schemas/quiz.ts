@@ -3,10 +3,21 @@
 import { z } from 'zod'
 import { modeSchema, toleranceSchema } from '../engine/schemas'
 import { caseSourceSchema } from './casebook'
+import { fundusDraftEyes } from './fundus'
 
-/** The criteria a quiz can weigh: the grader's, plus the three-step interpretation. */
-export const QUIZ_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason', 'interpretation'] as const
+/** The criteria a quiz can weigh: the grader's, the three-step interpretation, and a fundus item's two. */
+export const QUIZ_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason', 'interpretation', 'fundusAngle', 'fundusFinding'] as const
 export type QuizCriterion = (typeof QUIZ_CRITERIA)[number]
+
+export const QUIZ_ITEM_KINDS = ['dmr', 'fundus'] as const
+export type QuizItemKind = (typeof QUIZ_ITEM_KINDS)[number]
+
+/** The criteria each item kind marks (the others never appear in its marks). */
+export const KIND_CRITERIA: Record<QuizItemKind, readonly QuizCriterion[]> = {
+  dmr: ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason', 'interpretation'],
+  fundus: ['fundusAngle', 'fundusFinding'],
+}
+export const criteriaOfKind = (kind: string): readonly QuizCriterion[] => KIND_CRITERIA[kind as QuizItemKind] ?? KIND_CRITERIA.dmr
 
 export const CRITERION_LABELS: Record<QuizCriterion, string> = {
   measurement: 'Measurement',
@@ -19,6 +30,8 @@ export const CRITERION_LABELS: Record<QuizCriterion, string> = {
   action: 'Stopped the test',
   reason: 'Reason given',
   interpretation: 'Interpretation',
+  fundusAngle: 'Disc–fovea angle',
+  fundusFinding: 'Objective finding',
 }
 
 const weight = (name: string) => z.number({ error: `The weight of ${name} must be a number.` })
@@ -51,13 +64,42 @@ export const dmrItemBody = z.object({
 })
 export type DmrItemBody = z.input<typeof dmrItemBody>
 
-export const quizItemBody = z.discriminatedUnion('kind', [dmrItemBody], { error: 'Item kind must be "dmr".' })
+/** Where a fundus item's picture comes from: a generated case's fundus, or a marked photograph. */
+export const fundusSourceSchema = z.discriminatedUnion('type', [
+  ...caseSourceSchema.options,
+  z.object({ type: z.literal('photo'), id: z.number({ error: 'The photograph id must be a number.' }).int().positive({ error: 'The photograph id must be a positive whole number.' }) }),
+], { error: 'The source must be { type: "engine", templateId }, { type: "template", id }, { type: "case", id } or { type: "photo", id }.' })
+export type FundusItemSource = z.infer<typeof fundusSourceSchema>
+
+/** Degrees within which a fundus item's angle earns the full mark (half within twice it). */
+const fundusToleranceSchema = z.number({ error: 'The tolerance must be a number of degrees.' })
+  .min(0.5, { error: 'The tolerance is at least 0.5°.' })
+  .max(5, { error: 'The tolerance is at most 5°.' })
+
+/**
+ * A fundus item: the student marks the disc centre and fovea and records the
+ * objective finding — on a generated case's fundus (both eyes; per student or one
+ * for all, seeded like double Maddox rod items) or on a tutor's marked photograph.
+ */
+export const fundusItemBody = z.object({
+  kind: z.literal('fundus'),
+  prompt: promptField.default(''),
+  source: fundusSourceSchema,
+  perStudent: z.boolean({ error: 'Per student must be true or false.' }).default(true),
+  /** Default 1° (the practice grading's). */
+  tolerance: fundusToleranceSchema.optional(),
+  weights: weightsSchema.optional(),
+})
+export type FundusItemBody = z.input<typeof fundusItemBody>
+
+export const quizItemBody = z.discriminatedUnion('kind', [dmrItemBody, fundusItemBody], { error: 'Item kind must be "dmr" or "fundus".' })
 export type QuizItemBody = z.input<typeof quizItemBody>
 
 /** Editing an item: the same fields, all optional (the kind cannot change). */
 export const quizItemPatch = z.object({
   prompt: promptField.optional(),
-  source: caseSourceSchema.optional(),
+  /** A photograph is a source for fundus items only (the route says so). */
+  source: fundusSourceSchema.optional(),
   perStudent: z.boolean().optional(),
   mode: modeSchema.optional(),
   readScale: z.boolean().optional(),
@@ -141,6 +183,10 @@ export const overrideBody = z.object({
   reason: z.string({ error: 'Give a reason for the change.' }).trim().min(3, { error: 'Give a reason for the change (at least 3 characters).' }).max(1000, { error: 'Keep the reason under 1000 characters.' }),
 })
 export type OverrideBody = z.infer<typeof overrideBody>
+
+/** A student's autosaved fundus item: the marks so far, per eye (any may be missing). */
+export const fundusItemDraftBody = z.object({ eyes: fundusDraftEyes }, { error: 'Send the marks as { eyes: { RE?, LE? } }.' })
+export type FundusItemDraft = z.infer<typeof fundusItemDraftBody>
 
 export const RESULT_SORTS = ['name', 'total', 'slips', 'time', 'status'] as const
 

@@ -1,8 +1,11 @@
 // Response shapes of the quiz routes, shared by the routes and the pages.
 import type { Presentation, PatientTurnsResult } from '../engine/presentation'
-import type { Distance, Gaze, Lights, Mode, PerEye, Prism } from '../engine/types'
+import type { Distance, Gaze, Lights, Mode, PerEye, Prism, Eye } from '../engine/types'
 import type { NarrowedRanges } from '../schemas/casebook'
-import type { QuizCriterion } from '../schemas/quiz'
+import type { QuizCriterion, QuizItemKind, FundusItemDraft } from '../schemas/quiz'
+import type { FundusComparison, FundusEyeMarks, FundusGradeResult } from '../engine/fundus/result'
+import type { FundusPresentation } from '../engine/fundus/picture'
+import type { Point } from '../engine/fundus/geometry'
 import type { BenchDraft } from '../schemas/practice'
 import type { AttemptResult } from './practice'
 
@@ -41,15 +44,17 @@ export type StaffItemSource
   = | { type: 'engine', templateId: string, title: string }
     | { type: 'template', id: number, templateId: string, ranges: NarrowedRanges, title: string }
     | { type: 'case', id: number, title: string }
+    | { type: 'photo', id: number, title: string, eye: Eye, angle: number }
 
 export interface StaffQuizItem {
   id: number
   position: number
-  kind: string
+  kind: QuizItemKind
   prompt: string
   source: StaffItemSource
   perStudent: boolean
-  mode: Mode
+  /** Double Maddox rod items only (null on a fundus item). */
+  mode: Mode | null
   readScale: boolean
   tolerance: number
   weights: Record<QuizCriterion, number>
@@ -89,17 +94,30 @@ export interface StudentItemFeedback extends Omit<AttemptResult, 'marks'> {
   marks: { criterion: QuizCriterion, score: number, weight: number, reason: string, overridden: boolean }[]
 }
 
+/** A fundus item's feedback once it is open: the grading, the item's marks with overrides, and (on a case) subjective against objective. */
+export interface StudentFundusFeedback {
+  attemptId: number
+  result: FundusGradeResult
+  marks: { criterion: QuizCriterion, score: number, weight: number, reason: string, overridden: boolean }[]
+  score: number
+  points: { earned: number, possible: number }
+  comparison: FundusComparison | null
+}
+
 export interface StudentQuizItem {
   id: number
   position: number
+  kind: QuizItemKind
   prompt: string
-  mode: Mode
+  /** Double Maddox rod items only (null on a fundus item). */
+  mode: Mode | null
   readScale: boolean
   saved: boolean
   attempts: number
   attemptsLeft: number
   lastSubmittedAt: string | null
   feedback?: StudentItemFeedback
+  fundusFeedback?: StudentFundusFeedback
 }
 
 export interface StudentQuizDetail extends StudentQuizSummary {
@@ -109,6 +127,7 @@ export interface StudentQuizDetail extends StudentQuizSummary {
 
 /** What the bench needs to sit one item (never the truth). */
 export interface StudentItemCase {
+  kind: 'dmr'
   quizId: number
   itemId: number
   position: number
@@ -126,6 +145,31 @@ export interface StudentItemCase {
   deadline: string | null
   serverNow: string
 }
+
+/**
+ * What the fundus marker needs to sit a fundus item: the pictures of the eyes to
+ * measure (a case's drawn fundus, or a photograph's image route and size) — never
+ * the reference marks, the angle or the finding.
+ */
+export interface StudentFundusItem {
+  kind: 'fundus'
+  quizId: number
+  itemId: number
+  position: number
+  prompt: string
+  eyes: Eye[]
+  /** A generated case's fundus (picture geometry only). */
+  presentation: FundusPresentation | null
+  /** A photograph: served by /api/fundus/photos/:id/image to the quiz's students. */
+  photo: { imageUrl: string, width: number, height: number, eye: Eye } | null
+  draft: (FundusItemDraft & { savedAt: string }) | null
+  attempts: { attemptId: number, submittedAt: string }[]
+  attemptsLeft: number
+  deadline: string | null
+  serverNow: string
+}
+
+export type StudentQuizItemPage = StudentItemCase | StudentFundusItem
 
 export interface QuizAttemptReceipt {
   attemptId: number
@@ -180,6 +224,7 @@ export interface StudentResult {
 export interface ResultsColumn {
   id: number
   position: number
+  kind: QuizItemKind
   /** The item's source title (names the condition: staff only). */
   title: string
   possible: number
@@ -221,5 +266,21 @@ export interface QuizAttemptView {
   case: { id: number, mode: Mode, readScale: boolean, presentation: Presentation }
   feedbackOpen: boolean
   result: StudentItemFeedback | null
+  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
+}
+
+/** One fundus quiz attempt opened for review (staff always; the student, marks and the reference only once feedback is open). */
+export interface QuizFundusAttemptView {
+  quiz: { id: number, title: string }
+  item: { id: number, position: number, prompt: string, eyes: Eye[], title?: string, tolerance?: number }
+  student: { id: number, name: string, email?: string }
+  counts: boolean
+  attempt: { id: number, marks: Partial<Record<Eye, FundusEyeMarks>>, submittedAt: string }
+  presentation: FundusPresentation | null
+  photo: { imageUrl: string, width: number, height: number, eye: Eye } | null
+  feedbackOpen: boolean
+  /** The picture's own disc centre and fovea per eye (with the feedback). */
+  reference: Partial<Record<Eye, { disc: Point, fovea: Point }>> | null
+  result: StudentFundusFeedback | null
   overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
 }

@@ -61,6 +61,8 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/quizzes/[id]/attempts/[attemptId]': 'signed-in',
   'POST /api/quizzes/[id]/attempts/[attemptId]/overrides': ['tutor', 'lecturer', 'admin'],
   'POST /api/quizzes/[id]/release': ['tutor', 'lecturer', 'admin'],
+  'GET /api/quizzes/[id]/fundus-attempts/[attemptId]': 'signed-in',
+  'POST /api/quizzes/[id]/fundus-attempts/[attemptId]/overrides': ['tutor', 'lecturer', 'admin'],
   'POST /api/roster/preview': ['tutor', 'lecturer', 'admin'],
   'POST /api/roster/import': ['tutor', 'lecturer', 'admin'],
   // slip patterns (issue 6): lecturers all cohorts, tutors their own

@@ -1,9 +1,13 @@
 // Who may see a fundus photograph: lecturers and admins always; the person who
 // uploaded it; and anyone (student or tutor) in a cohort it is shared with — by
-// default the cohorts its tutor teaches. Everyone else is told it does not exist.
+// default the cohorts its tutor teaches. The image alone is also served to the
+// people of a quiz that uses the photograph (quizGivesPhoto). Everyone else is told
+// it does not exist.
 
 import type { SessionUserData } from '#shared/auth/roles'
-import type { FundusPhotoRow } from '~~/db/schema'
+import type { Kysely } from 'kysely'
+import { sql } from 'kysely'
+import type { Database, FundusPhotoRow } from '~~/db/schema'
 
 export const seesEveryFundusPhoto = (user: SessionUserData): boolean => user.role === 'lecturer' || user.role === 'admin'
 
@@ -11,11 +15,13 @@ export const seesEveryFundusPhoto = (user: SessionUserData): boolean => user.rol
 export const managesFundusPhoto = (user: SessionUserData, photo: Pick<FundusPhotoRow, 'owner_id'>): boolean =>
   seesEveryFundusPhoto(user) || (user.role === 'tutor' && photo.owner_id === user.id)
 
-/** The photograph if this person may see it, otherwise a 404 (never a hint that it exists). */
-export async function fundusPhotoFor(user: SessionUserData, id: number): Promise<FundusPhotoRow> {
-  const db = await useDb()
+/**
+ * The photograph if this person may see it in the fundus library (staff rules, or a
+ * cohort it is shared with), else undefined. Takes the db so quiz code can call it.
+ */
+export async function photoVisibleTo(db: Kysely<Database>, user: SessionUserData, id: number): Promise<FundusPhotoRow | undefined> {
   const photo = await db.selectFrom('fundus_photos').selectAll().where('id', '=', id).executeTakeFirst()
-  if (!photo) notFound('That fundus photograph')
+  if (!photo) return undefined
   if (seesEveryFundusPhoto(user) || photo.owner_id === user.id) return photo
   const shared = await db.selectFrom('fundus_photo_cohorts as pc')
     .innerJoin('cohort_members as m', 'm.cohort_id', 'pc.cohort_id')
@@ -23,8 +29,55 @@ export async function fundusPhotoFor(user: SessionUserData, id: number): Promise
     .where('pc.photo_id', '=', id)
     .where('m.user_id', '=', user.id)
     .executeTakeFirst()
-  if (!shared) notFound('That fundus photograph')
+  return shared ? photo : undefined
+}
+
+/** The photograph if this person may see it, otherwise a 404 (never a hint that it exists). */
+export async function fundusPhotoFor(user: SessionUserData, id: number): Promise<FundusPhotoRow> {
+  const photo = await photoVisibleTo(await useDb(), user, id)
+  if (!photo) notFound('That fundus photograph')
   return photo
+}
+
+/** Quiz items whose source is this photograph (`config_json.source`, see server/utils/quiz/items.ts). */
+export const photoItemsQuery = (db: Kysely<Database>, photoId: number) => db.selectFrom('quiz_items as qi')
+  .where('qi.kind', '=', 'fundus')
+  .where(sql<string>`json_extract(qi.config_json, '$.source.type')`, '=', 'photo')
+  .where(sql<number>`json_extract(qi.config_json, '$.source.id')`, '=', photoId)
+
+/**
+ * Whether a quiz gives this person the photograph's pixels: a student of a cohort
+ * assigned a published, unarchived quiz with an item on the photograph (during the
+ * sitting and after); a tutor who owns such a quiz or teaches a cohort it is
+ * assigned to. Only the image — the library page, its title and practice grading
+ * stay with the sharing rule above, so a quiz never gives away the answer early.
+ */
+export async function quizGivesPhoto(db: Kysely<Database>, user: SessionUserData, photoId: number): Promise<boolean> {
+  if (user.role !== 'student' && user.role !== 'tutor') return false
+  let q = photoItemsQuery(db, photoId)
+    .innerJoin('quizzes as q', 'q.id', 'qi.quiz_id')
+    .select('qi.id')
+  if (user.role === 'student') {
+    q = q.where('q.published_at', 'is not', null).where('q.archived_at', 'is', null)
+      .where('q.id', 'in', eb => eb.selectFrom('quiz_cohorts as qc').innerJoin('cohort_members as m', 'm.cohort_id', 'qc.cohort_id').select('qc.quiz_id').where('m.user_id', '=', user.id))
+  }
+  else {
+    q = q.where(eb => eb.or([
+      eb('q.owner_id', '=', user.id),
+      eb('q.id', 'in', eb.selectFrom('quiz_cohorts as qc').innerJoin('cohort_members as m', 'm.cohort_id', 'qc.cohort_id').select('qc.quiz_id').where('m.user_id', '=', user.id)),
+    ]))
+  }
+  return !!(await q.limit(1).executeTakeFirst())
+}
+
+/** The photograph for its image route: the library rule, or a quiz that uses it (quizGivesPhoto); else 404. */
+export async function fundusPhotoImageFor(user: SessionUserData, id: number): Promise<FundusPhotoRow> {
+  const db = await useDb()
+  const photo = await photoVisibleTo(db, user, id)
+  if (photo) return photo
+  const row = await db.selectFrom('fundus_photos').selectAll().where('id', '=', id).executeTakeFirst()
+  if (!row || !(await quizGivesPhoto(db, user, id))) notFound('That fundus photograph')
+  return row
 }
 
 /** Cohort ids a person may share a photograph with: a tutor's own cohorts, or any for lecturers and admins. */

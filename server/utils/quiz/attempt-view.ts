@@ -23,6 +23,8 @@ export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserD
       .orderBy('id', 'desc').executeTakeFirstOrThrow(),
   ])
   const config = readItemConfig(item)
+  // double Maddox rod attempts only ever belong to double Maddox rod items
+  if (config.kind !== 'dmr') throw new Error(`Attempt ${attempt.id} is on a ${config.kind} item.`)
   const staff = viewer.role !== 'student'
   const open = staff || feedbackReleased(quiz)
   const turn = attempt.trial ? (await caseTurns(db, caseRow.id)).find(t => t.trial === attempt.trial)?.result ?? null : null

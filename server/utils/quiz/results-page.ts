@@ -44,6 +44,7 @@ export function resultsPage(columns: ItemColumn[], rows: StudentResult[], query:
     columns: columns.map(c => ({
       id: c.id,
       position: c.position,
+      kind: c.config.kind,
       title: c.config.source.title,
       possible: c.possible,
       criteria: c.criteria.map(k => ({ criterion: k, label: CRITERION_LABELS[k] })),

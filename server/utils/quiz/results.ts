@@ -1,16 +1,19 @@
 // The results of a quiz: one row per assigned student, one cell per item. The
 // attempt that counts is the student's last submitted attempt on the item; a
 // tutor's overrides replace single criteria; the interpretation step (when the
-// quiz asks for it) counts as one more criterion with its own weight.
+// quiz asks for it) counts as one more criterion with its own weight. A fundus
+// item's attempt is a fundus_attempts row, marked by fundusMarksOf.
 import type { Kysely } from 'kysely'
 import type { QuizCriterion } from '#shared/schemas/quiz'
-import { QUIZ_CRITERIA } from '#shared/schemas/quiz'
+import { QUIZ_CRITERIA, criteriaOfKind } from '#shared/schemas/quiz'
+import type { FundusGradeResult } from '#shared/engine/fundus/result'
 import type { AttemptRow, Database, QuizItemRow, QuizRow, QuizSittingRow } from '~~/db/schema'
 import type { QuizItemConfig } from './items'
 import { readItemConfig } from './items'
 import { quizStudents } from './access'
 import type { EffectiveMark, ItemCell, StudentResult } from '#shared/types/quiz'
 import { sittingEnd, sittingStatus } from './timing'
+import { fundusMarksOf, loadFundusOverrides } from './fundus-marks'
 
 export interface ItemColumn {
   id: number
@@ -22,7 +25,18 @@ export interface ItemColumn {
   possible: number
 }
 
-interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
+export interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
+
+/** A tutor's overrides on marks: the latest override of each criterion wins (mutates and returns the marks). */
+export function applyOverrides(marks: EffectiveMark[], overrides: OverrideRow[]): EffectiveMark[] {
+  for (const o of [...overrides].sort((a, b) => a.created_at.localeCompare(b.created_at))) {
+    const m = marks.find(x => x.criterion === o.criterion)
+    if (!m) continue
+    m.override = { previousScore: m.override?.previousScore ?? o.previous_score, reason: o.reason, by: o.actorName, at: o.created_at }
+    m.score = o.score
+  }
+  return marks
+}
 
 /** Marks of one attempt as they stand: grader marks + interpretation, with overrides applied. */
 export function effectiveMarks(attempt: Pick<AttemptRow, 'marks_json' | 'interpretation_json'>, config: QuizItemConfig, interpretationOn: boolean, overrides: OverrideRow[]): EffectiveMark[] {
@@ -39,14 +53,7 @@ export function effectiveMarks(attempt: Pick<AttemptRow, 'marks_json' | 'interpr
       reason: 'Three-step interpretation.',
     })
   }
-  // the latest override of each criterion wins
-  for (const o of [...overrides].sort((a, b) => a.created_at.localeCompare(b.created_at))) {
-    const m = marks.find(x => x.criterion === o.criterion)
-    if (!m) continue
-    m.override = { previousScore: m.override?.previousScore ?? o.previous_score, reason: o.reason, by: o.actorName, at: o.created_at }
-    m.score = o.score
-  }
-  return marks
+  return applyOverrides(marks, overrides)
 }
 
 export const pointsOf = (marks: EffectiveMark[]) => ({
@@ -56,6 +63,7 @@ export const pointsOf = (marks: EffectiveMark[]) => ({
 
 /** Points an item is worth before anyone sits it: the weights of the criteria a normal case marks. */
 function nominalPossible(config: QuizItemConfig, interpretationOn: boolean): number {
+  if (config.kind === 'fundus') return config.weights.fundusAngle + config.weights.fundusFinding
   const record: QuizCriterion[] = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance']
   return record.reduce((a, c) => a + config.weights[c], 0) + (interpretationOn ? config.weights.interpretation : 0)
 }
@@ -71,7 +79,7 @@ export async function loadOverrides(db: Kysely<Database>, quizId: number): Promi
 export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: Date = new Date()): Promise<{ columns: ItemColumn[], rows: StudentResult[] }> {
   const itemRows: QuizItemRow[] = await db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quiz.id).orderBy('position').execute()
   const interpretationOn = quiz.interpretation === 1
-  const [students, sittings, attempts, overrides, drafts] = await Promise.all([
+  const [students, sittings, attempts, overrides, drafts, fundusAttempts, fundusOverrides, fundusDrafts] = await Promise.all([
     quizStudents(db, quiz.id),
     db.selectFrom('quiz_sittings').selectAll().where('quiz_id', '=', quiz.id).execute(),
     db.selectFrom('attempts')
@@ -79,11 +87,17 @@ export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: D
       .where('quiz_id', '=', quiz.id).where('kind', '=', 'quiz').orderBy('id').execute(),
     loadOverrides(db, quiz.id),
     db.selectFrom('cases').select(['owner_id', 'quiz_item_id']).where('quiz_id', '=', quiz.id).where('purpose', '=', 'quiz').where('draft_json', 'is not', null).execute(),
+    db.selectFrom('fundus_attempts').select(['id', 'learner_id', 'quiz_item_id', 'result_json', 'submitted_at'])
+      .where('quiz_id', '=', quiz.id).where('kind', '=', 'quiz').orderBy('id').execute(),
+    loadFundusOverrides(db, quiz.id),
+    db.selectFrom('quiz_fundus_drafts').select(['student_id as owner_id', 'quiz_item_id']).where('quiz_id', '=', quiz.id).execute(),
   ])
   const sittingOf = new Map<number, QuizSittingRow>(sittings.map(s => [s.student_id, s]))
   const overridesOf = new Map<number, OverrideRow[]>()
+  const fundusOverridesOf = new Map<number, OverrideRow[]>()
   for (const o of overrides) overridesOf.set(o.attempt_id, [...(overridesOf.get(o.attempt_id) ?? []), o])
-  const hasDraft = new Set(drafts.map(d => `${d.owner_id}/${d.quiz_item_id}`))
+  for (const o of fundusOverrides) fundusOverridesOf.set(o.attempt_id, [...(fundusOverridesOf.get(o.attempt_id) ?? []), o])
+  const hasDraft = new Set([...drafts, ...fundusDrafts].map(d => `${d.owner_id}/${d.quiz_item_id}`))
 
   const columns: ItemColumn[] = itemRows.map((r) => {
     const config = readItemConfig(r)
@@ -95,20 +109,27 @@ export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: D
   const rows: StudentResult[] = students.map((st) => {
     const sitting = sittingOf.get(st.id)
     const mine = attempts.filter(a => a.learner_id === st.id)
+    const mineFundus = fundusAttempts.filter(a => a.learner_id === st.id)
     const items: Record<number, ItemCell> = {}
     let earned = 0
     let slips = 0
     let lastSubmit: string | null = null
     for (const col of columns) {
-      const onItem = mine.filter(a => a.quiz_item_id === col.id)
+      // a fundus item's attempts are fundus_attempts rows (their ids are their own)
+      const onItem = col.config.kind === 'fundus'
+        ? mineFundus.filter(a => a.quiz_item_id === col.id)
+        : mine.filter(a => a.quiz_item_id === col.id)
       const counted = onItem.at(-1)
       if (!counted) {
         items[col.id] = { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], overridden: false, draftOnly: hasDraft.has(`${st.id}/${col.id}`) }
         continue
       }
-      const marks = effectiveMarks(counted, col.config, interpretationOn, overridesOf.get(counted.id) ?? [])
+      const marks = col.config.kind === 'fundus' && 'result_json' in counted
+        ? applyOverrides(fundusMarksOf(JSON.parse(counted.result_json) as FundusGradeResult, col.config.weights), fundusOverridesOf.get(counted.id) ?? [])
+        : effectiveMarks(counted as typeof attempts[number], col.config, interpretationOn, overridesOf.get(counted.id) ?? [])
       const pts = pointsOf(marks)
-      const slipCodes = (JSON.parse(counted.slips_json) as { code: string }[]).map(s => s.code)
+      // slips are the double Maddox rod record's; a fundus item has marks, not record slips
+      const slipCodes = 'slips_json' in counted ? (JSON.parse(counted.slips_json) as { code: string }[]).map(s => s.code) : []
       for (const m of marks) if (m.weight > 0) seenCriteria.get(col.id)!.add(m.criterion)
       maxPossible.set(col.id, Math.max(maxPossible.get(col.id) ?? 0, pts.possible))
       items[col.id] = {
@@ -149,7 +170,7 @@ export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: D
     const seen = seenCriteria.get(col.id)!
     col.criteria = seen.size
       ? QUIZ_CRITERIA.filter(c => seen.has(c))
-      : QUIZ_CRITERIA.filter(c => col.config.weights[c] > 0 && !(c === 'action' || c === 'reason') && (c !== 'interpretation' || interpretationOn))
+      : criteriaOfKind(col.config.kind).filter(c => col.config.weights[c]! > 0 && !(c === 'action' || c === 'reason') && (c !== 'interpretation' || interpretationOn))
     col.possible = maxPossible.get(col.id) ?? col.possible
   }
   for (const r of rows) {

@@ -5,7 +5,7 @@ import { createError } from 'h3'
 import type { Kysely, Transaction } from 'kysely'
 import type { CaseRow, Database, QuizItemRow, QuizRow } from '~~/db/schema'
 import { insertCase } from '../cases'
-import { buildItemCase, readItemConfig } from './items'
+import { buildItemCase, itemHasCase, readItemConfig } from './items'
 
 type Db = Kysely<Database> | Transaction<Database>
 
@@ -16,13 +16,18 @@ export function quizCaseRow(db: Db, quizId: number, itemId: number, studentId: n
     .orderBy('id').executeTakeFirst()
 }
 
-/** Stores the student's case for an item if it is not stored yet; returns the row. */
-export async function ensureQuizCase(db: Db, quiz: QuizRow, item: QuizItemRow, studentId: number, now: string): Promise<CaseRow> {
+/**
+ * Stores the student's case for an item if it is not stored yet; returns the row —
+ * or null for a photograph item, which has no case (its picture is the photograph).
+ */
+export async function ensureQuizCase(db: Db, quiz: QuizRow, item: QuizItemRow, studentId: number, now: string): Promise<CaseRow | null> {
+  const config = readItemConfig(item)
+  if (!itemHasCase(config)) return null
   const existing = await quizCaseRow(db, quiz.id, item.id, studentId)
   if (existing) return existing
-  const config = readItemConfig(item)
   const built = buildItemCase(config, quiz.seed, item.id, studentId)
-  const common = { ownerId: studentId, purpose: 'quiz' as const, mode: config.mode, readScale: config.readScale, quizId: quiz.id, quizItemId: item.id, now }
+  // a fundus item's case is never on the bench: its mode is stored only because a case row has one
+  const common = { ownerId: studentId, purpose: 'quiz' as const, mode: config.kind === 'dmr' ? config.mode : 'learner-turns' as const, readScale: config.kind === 'dmr' && config.readScale, quizId: quiz.id, quizItemId: item.id, now }
   const { row } = built.specJson
     ? await insertCase(db, { ...common, spec: JSON.parse(built.specJson), specId: built.specId })
     // the template names the condition: hidden from the student until results are open

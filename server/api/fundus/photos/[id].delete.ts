@@ -11,6 +11,13 @@ export default defineEventHandler(async (event) => {
   if (!managesFundusPhoto(user, photo)) {
     throw createError({ statusCode: 403, message: 'Only the tutor who uploaded this photograph, a lecturer or an admin can delete it.', data: { code: 'not-yours' } })
   }
-  await deleteFundusPhoto(await useDb(), fundusPhotoDirFor(useRuntimeConfig()), photo, user.id)
+  // a quiz item serves its pixels and grades against its snapshot: keep it while any item uses it
+  const db = await useDb()
+  const used = await photoItemsQuery(db, id).innerJoin('quizzes as q', 'q.id', 'qi.quiz_id').select(['q.title']).execute()
+  if (used.length) {
+    const titles = [...new Set(used.map(u => `“${u.title}”`))].join(', ')
+    throw createError({ statusCode: 409, message: `This photograph is an item of ${used.length === 1 ? 'the quiz' : 'the quizzes'} ${titles}; remove the item before deleting it.`, data: { code: 'used-by-quiz' } })
+  }
+  await deleteFundusPhoto(db, fundusPhotoDirFor(useRuntimeConfig()), photo, user.id)
   return { deleted: id }
 })

@@ -32,6 +32,10 @@ export default defineEventHandler(async (event) => {
   const students = await quizStudents(db, id)
   const sat = new Set((await db.selectFrom('quiz_sittings').select('student_id').where('quiz_id', '=', id).execute()).map(s => s.student_id))
   const link = `${siteOrigin(event)}/student/quizzes/${id}`
+  const fundusItems = await db.selectFrom('quiz_items').select('position').where('quiz_id', '=', id).where('kind', '=', 'fundus').orderBy('position').execute()
+  const fundusLine = fundusItems.length
+    ? `Fundus item${fundusItems.length === 1 ? '' : 's'} ${fundusItems.map(i => i.position).join(', ')}: your disc–fovea angle beside the picture's, your objective finding against the normal range, and where the disc centre and fovea lie.`
+    : null
   let mailed = 0
   for (const s of students) {
     const { sent } = await sendMail({
@@ -43,6 +47,7 @@ export default defineEventHandler(async (event) => {
         sat.has(s.id)
           ? `Your tutor has released the results of “${quiz.title}”. Your marks, the slips in each record and the worked answers are ready:`
           : `Your tutor has released the results of “${quiz.title}”. You did not sit it; the worked answers are ready to review:`,
+        ...(fundusLine ? [fundusLine] : []),
         link,
         '',
         'Cyclodial is a simulation for education; real assessment follows local protocols under licensed clinical supervision.',

@@ -1,4 +1,5 @@
-// The photograph's bytes, only for signed-in people allowed to see it (others: 404).
+// The photograph's bytes, only for signed-in people allowed to see it — the library
+// rule, or a quiz that uses the photograph (fundusPhotoImageFor) — others: 404.
 // Served from the data folder, never from public/, and never cached by shared caches.
 import { readFile } from 'node:fs/promises'
 import { idParam } from '#shared/schemas/admin'
@@ -7,7 +8,7 @@ import { fundusPhotoDirFor, storagePath } from '~~/server/utils/fundus/photoFile
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
-  const photo = await fundusPhotoFor(user, id)
+  const photo = await fundusPhotoImageFor(user, id)
   const bytes = await readFile(storagePath(fundusPhotoDirFor(useRuntimeConfig()), photo.storage_name)).catch(() => null)
   if (!bytes) notFound('That fundus photograph\'s file')
   setResponseHeaders(event, {

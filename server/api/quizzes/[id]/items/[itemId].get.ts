@@ -1,14 +1,16 @@
-import type { StudentItemCase } from '#shared/types/quiz'
+import type { StudentQuizItemPage } from '#shared/types/quiz'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/utils/quiz/access'
 import { readItemConfig } from '~~/server/utils/quiz/items'
 import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
+import { studentFundusItem } from '~~/server/utils/quiz/fundus-sitting'
 import { caseTurns, regenerateCase } from '~~/server/utils/cases'
 import { toPresentation } from '~~/server/utils/engine/presentation'
 
 // One item for the bench: the presentation (never the truth), the autosaved draft and
 // the patient's turns so far, so a reload or a restarted server picks up where it was.
-export default defineEventHandler(async (event): Promise<StudentItemCase> => {
+// A fundus item gives the marker its picture(s) and the saved marks instead.
+export default defineEventHandler(async (event): Promise<StudentQuizItemPage> => {
   const user = await requireRole(event, 'student')
   const { id, itemId } = paramsAs(event, quizItemParams)
   const db = await useDb()
@@ -19,7 +21,8 @@ export default defineEventHandler(async (event): Promise<StudentItemCase> => {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Start the quiz first.', data: { code: 'quiz-not-started' } })
   }
   const config = readItemConfig(item)
-  const row = await ensureQuizCase(db, quiz, item, user.id, nowIso())
+  if (config.kind === 'fundus') return studentFundusItem(db, user, quiz, item, config, sitting)
+  const row = (await ensureQuizCase(db, quiz, item, user.id, nowIso()))!
   const [attempts, turns] = await Promise.all([
     db.selectFrom('attempts').select(['id', 'submitted_at'])
       .where('quiz_id', '=', id).where('quiz_item_id', '=', itemId).where('learner_id', '=', user.id).where('kind', '=', 'quiz')
@@ -27,6 +30,7 @@ export default defineEventHandler(async (event): Promise<StudentItemCase> => {
     caseTurns(db, row.id),
   ])
   return {
+    kind: 'dmr',
     quizId: id,
     itemId,
     position: item.position,

@@ -2,7 +2,7 @@ import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
 import { quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { readItemConfig, resolveWeights, snapshotSource } from '~~/server/utils/quiz/items'
+import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/utils/quiz/items'
 import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
 
 export default defineEventHandler(async (event) => {
@@ -14,17 +14,33 @@ export default defineEventHandler(async (event) => {
   const item = await quizItemOf(db, id, itemId)
   await assertUnlocked(db, id)
   const config = readItemConfig(item)
-  if (body.source) {
+  assertWeightsOfKind(body.weights, config.kind)
+  if (config.kind === 'fundus') {
+    const stray = (['mode', 'readScale'] as const).filter(k => body[k] !== undefined)
+    if (stray.length) badRequest(stray.map(k => ({ path: k, message: 'A fundus item has no double Maddox rod settings.' })))
+    if (body.tolerance !== undefined && body.tolerance > 5) badRequest([{ path: 'tolerance', message: 'The tolerance of a fundus item is at most 5°.' }])
+    if (body.source) config.source = await snapshotFundusSource(db, user, body.source)
+    if (body.perStudent !== undefined) config.perStudent = body.perStudent
+    if (fixedSource(config.source)) config.perStudent = false
+    if (body.tolerance !== undefined) config.tolerance = body.tolerance
+    if (body.weights !== undefined) config.weights = resolveWeights(body.weights, config.weights, 'fundus')
+  }
+  else if (body.source?.type === 'photo') {
+    badRequest([{ path: 'source', message: 'A photograph is a source for fundus items only.' }])
+  }
+  else if (body.source) {
     const { snapshot, tolerance } = await snapshotSource(db, user, body.source)
     config.source = snapshot
     if (body.tolerance === undefined) config.tolerance = tolerance
   }
-  if (body.perStudent !== undefined) config.perStudent = body.perStudent
-  if (config.source.type === 'case') config.perStudent = false
-  if (body.mode !== undefined) config.mode = body.mode
-  if (body.readScale !== undefined) config.readScale = body.readScale
-  if (body.tolerance !== undefined) config.tolerance = body.tolerance
-  if (body.weights !== undefined) config.weights = resolveWeights(body.weights, config.weights)
+  if (config.kind === 'dmr') {
+    if (body.perStudent !== undefined) config.perStudent = body.perStudent
+    if (config.source.type === 'case') config.perStudent = false
+    if (body.mode !== undefined) config.mode = body.mode
+    if (body.readScale !== undefined) config.readScale = body.readScale
+    if (body.tolerance !== undefined) config.tolerance = body.tolerance
+    if (body.weights !== undefined) config.weights = resolveWeights(body.weights, config.weights)
+  }
   const now = nowIso()
   await db.transaction().execute(async (trx) => {
     await trx.updateTable('quiz_items').set({

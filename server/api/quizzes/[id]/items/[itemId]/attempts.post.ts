@@ -1,6 +1,8 @@
 import type { GradeCriterion } from '~~/server/utils/engine/grader'
 import { practiceAttemptSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'
+import { fundusItemAttemptBody } from '#shared/schemas/fundus'
+import { submitFundusItem } from '~~/server/utils/quiz/fundus-sitting'
 import type { QuizAttemptReceipt } from '#shared/types/quiz'
 import { quizForStudent } from '~~/server/utils/quiz/access'
 import { readItemConfig } from '~~/server/utils/quiz/items'
@@ -17,14 +19,25 @@ import type { CaseRow } from '~~/db/schema'
 const hasCoverTest = (row: CaseRow) => !!toPresentation(regenerateCase(row), row.mode).coverTest
 
 // Submit an item: graded and stored by recordAttempt (kind 'quiz') with the item's
-// tolerance and weights. The answer carries no marks: they wait for release.
+// tolerance and weights. The answer carries no marks: they wait for release. A
+// fundus item is graded by the fundus grading and stored in fundus_attempts.
 export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => {
   const user = await requireRole(event, 'student')
   const { id, itemId } = paramsAs(event, quizItemParams)
-  const { trial, interpretation, ...attempt } = await readBodyAs(event, practiceAttemptSchema)
   const db = await useDb()
   const quiz = await quizForStudent(db, user, id)
   const item = await quizItemOf(db, id, itemId)
+  const itemConfig = readItemConfig(item)
+  if (itemConfig.kind === 'fundus') {
+    const marks = await readBodyAs(event, fundusItemAttemptBody)
+    return withKeyLock(`attempt/${id}/${itemId}/${user.id}`, async () => {
+      assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+      const receipt = await submitFundusItem(db, user, quiz, item, itemConfig, marks)
+      setResponseStatus(event, 201)
+      return receipt
+    })
+  }
+  const { trial, interpretation, ...attempt } = await readBodyAs(event, practiceAttemptSchema)
   return withKeyLock(`attempt/${id}/${itemId}/${user.id}`, async () => {
     const sitting = assertSittingOpen(quiz, await sittingOf(db, id, user.id))
     const row = await quizCaseRow(db, id, itemId, user.id)
@@ -40,7 +53,7 @@ export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => 
         data: { code: 'no-attempts-left' },
       })
     }
-    const config = readItemConfig(item)
+    const config = itemConfig
     const { interpretation: _i, ...gradeWeights } = config.weights
     const recorded = await withCaseErrors(() => recordAttempt(db, {
       caseRow: row,

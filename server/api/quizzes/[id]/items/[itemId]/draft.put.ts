@@ -1,18 +1,27 @@
 import { benchDraftSchema } from '#shared/schemas/practice'
-import { quizItemParams } from '#shared/schemas/quiz'
+import { fundusItemDraftBody, quizItemParams } from '#shared/schemas/quiz'
+import { readItemConfig } from '~~/server/utils/quiz/items'
+import { saveFundusDraft } from '~~/server/utils/quiz/fundus-sitting'
 import { quizForStudent } from '~~/server/utils/quiz/access'
 import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
 import { assertSittingOpen } from '~~/server/utils/quiz/timing'
 
 // Autosave, stored on the case row as the practice API stores it. Refused (409)
 // once the sitting has ended: what was saved before the deadline stays as it was.
+// A fundus item's body is its marks so far ({ eyes: { RE?, LE? } }), kept per
+// item and student in quiz_fundus_drafts; the item decides which body is read.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'student')
   const { id, itemId } = paramsAs(event, quizItemParams)
-  const draft = await readBodyAs(event, benchDraftSchema)
   const db = await useDb()
   const quiz = await quizForStudent(db, user, id)
-  await quizItemOf(db, id, itemId)
+  const item = await quizItemOf(db, id, itemId)
+  if (readItemConfig(item).kind === 'fundus') {
+    const marks = await readBodyAs(event, fundusItemDraftBody)
+    assertSittingOpen(quiz, await sittingOf(db, id, user.id))
+    return saveFundusDraft(db, id, itemId, user.id, marks)
+  }
+  const draft = await readBodyAs(event, benchDraftSchema)
   assertSittingOpen(quiz, await sittingOf(db, id, user.id))
   const row = await quizCaseRow(db, id, itemId, user.id)
   if (!row) notFound('That quiz item')

@@ -2,6 +2,7 @@ import type { PatientTurnsResult } from '#shared/engine/presentation'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/utils/quiz/access'
+import { readItemConfig } from '~~/server/utils/quiz/items'
 import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
 import { assertSittingOpen } from '~~/server/utils/quiz/timing'
 import { recordTurn } from '~~/server/utils/cases'
@@ -15,7 +16,10 @@ export default defineEventHandler(async (event): Promise<PatientTurnsResult> => 
   const setting = await readBodyAs(event, turnRequestSchema)
   const db = await useDb()
   const quiz = await quizForStudent(db, user, id)
-  await quizItemOf(db, id, itemId)
+  const item = await quizItemOf(db, id, itemId)
+  if (readItemConfig(item).kind !== 'dmr') {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This is a fundus item: there is no patient to turn the rods.', data: { code: 'wrong-item-kind' } })
+  }
   assertSittingOpen(quiz, await sittingOf(db, id, user.id))
   const row = await quizCaseRow(db, id, itemId, user.id)
   if (!row) notFound('That quiz item')

@@ -4,6 +4,7 @@ import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { buildItemCase, readItemConfig } from '~~/server/utils/quiz/items'
 import { quizCaseRow, quizItemOf } from '~~/server/utils/quiz/sitting'
 import { regenerateCase } from '~~/server/utils/cases'
+import { fundusDraftOf, fundusItemPictures, fundusPicturesOfCase, referencePoints } from '~~/server/utils/quiz/fundus-item'
 import { revealTruth } from '~~/server/utils/engine/attempt'
 import { toPresentation } from '~~/server/utils/engine/presentation'
 
@@ -19,8 +20,30 @@ export default defineEventHandler(async (event) => {
   if (!student) notFound('That student')
   const config = readItemConfig(item)
   const row = await quizCaseRow(db, id, itemId, studentId)
+  if (config.kind === 'fundus') {
+    // the same picture the student marks, with its reference points and angles
+    const built = config.source.type === 'photo' ? null : row ?? null
+    const c = config.source.type === 'photo' || row ? null : buildItemCase(config, quiz.seed, itemId, studentId)
+    const pictures = built || config.source.type === 'photo'
+      ? fundusItemPictures(config, built)
+      : fundusPicturesOfCase(config, c!.case)
+    return {
+      kind: 'fundus' as const,
+      student: { id: student.id, name: student.name },
+      item: { id: item.id, position: item.position, prompt: item.prompt, eyes: pictures.eyes },
+      stored: config.source.type === 'photo' || !!row,
+      caseId: row?.id ?? null,
+      seed: config.source.type === 'photo' ? null : row?.seed ?? c!.seed,
+      presentation: pictures.presentation,
+      photo: pictures.photo,
+      draft: await fundusDraftOf(db, itemId, studentId),
+      reference: referencePoints(pictures),
+      angles: Object.fromEntries(pictures.eyes.map(e => [e, pictures.truth ? pictures.truth.eyes[e].angle : config.source.type === 'photo' ? config.source.angle : null])),
+    }
+  }
   const c = row ? regenerateCase(row) : buildItemCase(config, quiz.seed, itemId, studentId).case
   return {
+    kind: 'dmr' as const,
     student: { id: student.id, name: student.name },
     item: { id: item.id, position: item.position, prompt: item.prompt, mode: config.mode, readScale: config.readScale },
     stored: !!row,

@@ -1,0 +1,17 @@
+import { quizAttemptParams } from '#shared/schemas/quiz'
+import { quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
+import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
+
+// A fundus item's attempt: staff open any attempt of a quiz they manage; a student
+// only their own (anyone else's is 404), and its marks only once feedback is open.
+export default defineEventHandler(async (event) => {
+  const user = await requireSignedIn(event)
+  const { id, attemptId } = paramsAs(event, quizAttemptParams)
+  const db = await useDb()
+  const quiz = user.role === 'student' ? await quizForStudent(db, user, id) : await quizForStaff(db, user, id)
+  let q = db.selectFrom('fundus_attempts').selectAll().where('id', '=', attemptId).where('quiz_id', '=', id).where('kind', '=', 'quiz')
+  if (user.role === 'student') q = q.where('learner_id', '=', user.id)
+  const attempt = await q.executeTakeFirst()
+  if (!attempt) notFound('That attempt')
+  return quizFundusAttemptView(db, user, quiz, attempt)
+})
