@@ -10,7 +10,8 @@ export type SaveState = { kind: 'idle' } | { kind: 'saving' } | { kind: 'saved',
 
 export function useQuizAutosave(onRefused: (message: string) => void) {
   const state = ref<SaveState>({ kind: 'idle' })
-  const pending = new Map<string, BenchDraft>()
+  // a draft is the bench state (double Maddox rod items) or the marks so far (fundus items)
+  const pending = new Map<string, object>()
   let running = false
   let timer: ReturnType<typeof setTimeout> | undefined
 
@@ -47,7 +48,7 @@ export function useQuizAutosave(onRefused: (message: string) => void) {
     if (again) await flush()
   }
 
-  function save(url: string, draft: BenchDraft) {
+  function save(url: string, draft: BenchDraft | object) {
     pending.set(url, draft)
     clearTimeout(timer)
     void flush()
