@@ -1,6 +1,7 @@
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
 import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
 import { readItemConfig } from '~~/server/utils/quiz/items'
 import { effectiveMarks, loadOverrides } from '~~/server/utils/quiz/results'
@@ -17,32 +18,14 @@ export default defineEventHandler(async (event) => {
   if (!attempt) notFound('That attempt')
   const latest = await db.selectFrom('attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
     .orderBy('id', 'desc').executeTakeFirstOrThrow()
-  if (latest.id !== attempt.id) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This is not the attempt that counts: the student submitted again later. Change the marks on the last attempt.', data: { code: 'not-counting-attempt' } })
-  }
+  assertCountingAttempt(attempt.id, latest.id)
   const item = await db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow()
   const overrides = (await loadOverrides(db, id)).filter(o => o.attempt_id === attempt.id)
   const mark = effectiveMarks(attempt, readItemConfig(item), quiz.interpretation === 1, overrides).find(m => m.criterion === body.criterion)
   if (!mark) badRequest([{ path: 'criterion', message: `This attempt has no “${body.criterion}” mark to change.` }])
-  const now = nowIso()
-  await db.transaction().execute(async (trx) => {
-    await trx.insertInto('quiz_mark_overrides').values({
-      attempt_id: attempt.id,
-      quiz_id: id,
-      criterion: body.criterion,
-      previous_score: mark.score,
-      score: body.score,
-      reason: body.reason,
-      actor_id: user.id,
-      created_at: now,
-    }).execute()
-    await writeAudit(trx, {
-      actorId: user.id,
-      action: 'quiz.mark-overridden',
-      targetType: 'attempt',
-      targetId: attempt.id,
-      detail: { quizId: id, studentId: attempt.learner_id, itemId: attempt.quiz_item_id, criterion: body.criterion, from: mark.score, to: body.score, reason: body.reason },
-    })
+  await storeMarkOverride(db, {
+    kind: 'dmr', attemptId: attempt.id, quizId: id, studentId: attempt.learner_id, itemId: attempt.quiz_item_id,
+    criterion: body.criterion, from: mark.score, to: body.score, reason: body.reason, actorId: user.id,
   })
   setResponseStatus(event, 201)
   return quizAttemptView(db, user, quiz, attempt)

@@ -1,6 +1,7 @@
 import { KIND_CRITERIA, overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
 import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
 import type { FundusItemConfig } from '~~/server/utils/quiz/items'
 import { readItemConfig } from '~~/server/utils/quiz/items'
@@ -20,9 +21,7 @@ export default defineEventHandler(async (event) => {
   if (!attempt) notFound('That attempt')
   const latest = await db.selectFrom('fundus_attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id).where('kind', '=', 'quiz')
     .orderBy('id', 'desc').executeTakeFirstOrThrow()
-  if (latest.id !== attempt.id) {
-    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'This is not the attempt that counts: the student submitted again later. Change the marks on the last attempt.', data: { code: 'not-counting-attempt' } })
-  }
+  assertCountingAttempt(attempt.id, latest.id)
   if (!KIND_CRITERIA.fundus.includes(body.criterion)) {
     badRequest([{ path: 'criterion', message: `A fundus item marks ${KIND_CRITERIA.fundus.join(' and ')}; it has no “${body.criterion}” mark.` }])
   }
@@ -30,25 +29,9 @@ export default defineEventHandler(async (event) => {
   const config = readItemConfig(item) as FundusItemConfig
   const overrides = (await loadFundusOverrides(db, id)).filter(o => o.attempt_id === attempt.id)
   const mark = applyOverrides(fundusMarksOf(JSON.parse(attempt.result_json) as FundusGradeResult, config.weights), overrides).find(m => m.criterion === body.criterion)!
-  const now = nowIso()
-  await db.transaction().execute(async (trx) => {
-    await trx.insertInto('quiz_fundus_overrides').values({
-      fundus_attempt_id: attempt.id,
-      quiz_id: id,
-      criterion: body.criterion,
-      previous_score: mark.score,
-      score: body.score,
-      reason: body.reason,
-      actor_id: user.id,
-      created_at: now,
-    }).execute()
-    await writeAudit(trx, {
-      actorId: user.id,
-      action: 'quiz.mark-overridden',
-      targetType: 'fundus-attempt',
-      targetId: attempt.id,
-      detail: { quizId: id, studentId: attempt.learner_id, itemId: attempt.quiz_item_id, criterion: body.criterion, from: mark.score, to: body.score, reason: body.reason },
-    })
+  await storeMarkOverride(db, {
+    kind: 'fundus', attemptId: attempt.id, quizId: id, studentId: attempt.learner_id, itemId: attempt.quiz_item_id,
+    criterion: body.criterion, from: mark.score, to: body.score, reason: body.reason, actorId: user.id,
   })
   setResponseStatus(event, 201)
   return quizFundusAttemptView(db, user, quiz, attempt)
