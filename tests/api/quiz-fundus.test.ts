@@ -209,6 +209,9 @@ describe('fundus items in quizzes', () => {
     const changed = await tutor.post(`/api/quizzes/${quiz.id}/fundus-attempts/${caseSent.body.attemptId}/overrides`, { criterion: 'fundusFinding', score: 0.5, reason: 'Right finding, but say which eye first' })
     expect(changed.status).toBe(201)
     expect(changed.body.result.marks.find((m: any) => m.criterion === 'fundusFinding')).toMatchObject({ score: 0.5, overridden: true })
+    // the tutor's view lists the change with its reason once, beside the marks, not inside the mark's own reason
+    expect(changed.body.result.marks.find((m: any) => m.criterion === 'fundusFinding').reason).not.toMatch(/Changed by your tutor/)
+    expect(changed.body.overrides).toEqual([expect.objectContaining({ criterion: 'fundusFinding', previousScore: 1, score: 0.5, reason: 'Right finding, but say which eye first' })])
     const audit = (await admin.get('/api/admin/audit?pageSize=100')).body.items
     expect(audit.find((e: any) => e.action === 'quiz.mark-overridden' && e.detail?.criterion === 'fundusFinding')?.detail).toMatchObject({ from: 1, to: 0.5 })
     const after = (await tutor.get(`/api/quizzes/${quiz.id}/results?q=vellacott`)).body.items[0]

@@ -35,7 +35,7 @@ export async function quizFundusAttemptView(db: Kysely<Database>, viewer: Sessio
     photo: pictures.photo,
     feedbackOpen: open,
     reference: open ? referencePoints(pictures) : null,
-    result: open ? fundusFeedbackOf(attempt, config, pictures, overrides) : null,
+    result: open ? fundusFeedbackOf(attempt, config, pictures, overrides, staff ? 'staff' : 'student') : null,
     overrides: staff ? overrides.map(o => ({ criterion: o.criterion, previousScore: o.previous_score, score: o.score, reason: o.reason, by: o.actorName, at: o.created_at })) : [],
   }
 }

@@ -83,7 +83,7 @@ export function gradeFundusItem(config: FundusItemConfig, pictures: FundusItemPi
 }
 
 /** A stored fundus attempt's feedback: the grading as first given, the item's weighted marks with overrides. */
-export function fundusFeedbackOf(attempt: Pick<FundusAttemptRow, 'id' | 'result_json'>, config: FundusItemConfig, pictures: FundusItemPictures, overrides: OverrideRow[]): StudentFundusFeedback {
+export function fundusFeedbackOf(attempt: Pick<FundusAttemptRow, 'id' | 'result_json'>, config: FundusItemConfig, pictures: FundusItemPictures, overrides: OverrideRow[], audience: 'student' | 'staff' = 'student'): StudentFundusFeedback {
   const result = JSON.parse(attempt.result_json) as FundusGradeResult
   const marks = applyOverrides(fundusMarksOf(result, config.weights), overrides.filter(o => o.attempt_id === attempt.id))
   const points = pointsOf(marks)
@@ -94,7 +94,8 @@ export function fundusFeedbackOf(attempt: Pick<FundusAttemptRow, 'id' | 'result_
       criterion: m.criterion,
       score: m.score,
       weight: m.weight,
-      reason: m.override ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
+      // staff see the change, with its reason, in the list of changes beside the marks
+      reason: m.override && audience === 'student' ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
       overridden: !!m.override,
     })),
     score: points.possible ? points.earned / points.possible : 0,
