@@ -6,23 +6,10 @@ import type { StudentItemFeedback } from '#shared/types/quiz'
 import type { AttemptRow, Database } from '~~/db/schema'
 import { attemptResultFromRow } from '../attempts'
 import type { QuizItemConfig } from './items'
-import { effectiveMarks, loadOverrides, pointsOf } from './results'
+import { effectiveMarks, feedbackMarks, loadOverrides } from './results'
 
 export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean, audience: 'student' | 'staff' = 'student'): Promise<StudentItemFeedback> {
   const overrides = (await loadOverrides(db, attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
   const marks = effectiveMarks(attempt, config, interpretationOn, overrides)
-  const points = pointsOf(marks)
-  const result = attemptResultFromRow(attempt)
-  return {
-    ...result,
-    marks: marks.map(m => ({
-      criterion: m.criterion,
-      score: m.score,
-      weight: m.weight,
-      reason: m.override && audience === 'student' ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
-      overridden: !!m.override,
-    })),
-    score: points.possible ? points.earned / points.possible : 0,
-    points,
-  }
+  return { ...attemptResultFromRow(attempt), ...feedbackMarks(marks, audience) }
 }

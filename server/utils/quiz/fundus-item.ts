@@ -21,7 +21,7 @@ import type { Case } from '../engine/types'
 import type { FundusItemConfig } from './items'
 import { fundusItemEyes } from './items'
 import type { OverrideRow } from './results'
-import { applyOverrides, pointsOf } from './results'
+import { applyOverrides, feedbackMarks } from './results'
 import { fundusMarksOf } from './fundus-marks'
 
 export interface FundusItemPictures {
@@ -86,20 +86,10 @@ export function gradeFundusItem(config: FundusItemConfig, pictures: FundusItemPi
 export function fundusFeedbackOf(attempt: Pick<FundusAttemptRow, 'id' | 'result_json'>, config: FundusItemConfig, pictures: FundusItemPictures, overrides: OverrideRow[], audience: 'student' | 'staff' = 'student'): StudentFundusFeedback {
   const result = JSON.parse(attempt.result_json) as FundusGradeResult
   const marks = applyOverrides(fundusMarksOf(result, config.weights), overrides.filter(o => o.attempt_id === attempt.id))
-  const points = pointsOf(marks)
   return {
     attemptId: attempt.id,
     result,
-    marks: marks.map(m => ({
-      criterion: m.criterion,
-      score: m.score,
-      weight: m.weight,
-      // staff see the change, with its reason, in the list of changes beside the marks
-      reason: m.override && audience === 'student' ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
-      overridden: !!m.override,
-    })),
-    score: points.possible ? points.earned / points.possible : 0,
-    points,
+    ...feedbackMarks(marks, audience),
     comparison: pictures.case && pictures.truth ? compareWithDmr(pictures.case, pictures.truth) : null,
   }
 }

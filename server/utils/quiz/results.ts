@@ -61,6 +61,26 @@ export const pointsOf = (marks: EffectiveMark[]) => ({
   possible: marks.reduce((a, m) => a + m.weight, 0),
 })
 
+/**
+ * Marks as feedback shows them, with the score and points they make, for either item
+ * kind. A student reads a tutor's change inside the mark's reason; staff see each
+ * change, with its reason, in the list of changes beside the marks.
+ */
+export function feedbackMarks(marks: EffectiveMark[], audience: 'student' | 'staff') {
+  const points = pointsOf(marks)
+  return {
+    marks: marks.map(m => ({
+      criterion: m.criterion,
+      score: m.score,
+      weight: m.weight,
+      reason: m.override && audience === 'student' ? `${m.reason} Changed by your tutor: ${m.override.reason}` : m.reason,
+      overridden: !!m.override,
+    })),
+    score: points.possible ? points.earned / points.possible : 0,
+    points,
+  }
+}
+
 /** Points an item is worth before anyone sits it: the weights of the criteria a normal case marks. */
 function nominalPossible(config: QuizItemConfig, interpretationOn: boolean): number {
   if (config.kind === 'fundus') return config.weights.fundusAngle + config.weights.fundusFinding
