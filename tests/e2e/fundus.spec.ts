@@ -94,6 +94,11 @@ test('a tutor uploads and marks a photograph; a student of the cohort measures i
   // atan(25 / 200) = 7.1° (tan α = vertical / horizontal offset, clinical-facts R45)
   await expect(page.getByText(/Reference marks saved: 7\.\d°/)).toBeVisible()
   await page.screenshot({ path: 'test-results/screenshots/fundus-photo-reference.png' })
+  // the marked photograph is in the tutor's casebook, ready to be a quiz item
+  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Casebook' }).click()
+  const inCasebook = page.getByRole('region', { name: 'Your fundus photographs' }).getByRole('row', { name: /Kestrel teaching fundus/ })
+  await expect(inCasebook).toContainText(/7\.\d°/)
+  await expect(inCasebook.getByRole('link', { name: 'Open' })).toHaveAttribute('href', `/fundus/photos/${photoId}`)
 
   const kestrel = await browser.newPage({ hasTouch: true })
   await signIn(kestrel, 'student@cyclodial.test')
