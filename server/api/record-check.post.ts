@@ -16,5 +16,5 @@ export default defineEventHandler(async (event): Promise<RecordCheckResult> => {
     shouldNotTest: body.notTestable,
     options: { tolerance: body.tolerance },
   })
-  return { readAs: r.readAs, parsed: r.parsed, marks: r.marks, score: r.score, points: r.points, slips: r.slips, modelRecord: r.modelRecord, explanation: r.explanation }
+  return { readAs: r.readAs, parsed: r.parsed, marks: r.marks, score: r.score, points: r.points, cap: r.cap, slips: r.slips, modelRecord: r.modelRecord, explanation: r.explanation }
 })

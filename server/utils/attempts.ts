@@ -6,6 +6,7 @@
 import type { Kysely } from 'kysely'
 import type { EyeRecord, GazeSection } from '#shared/engine/parser'
 import { readAsLine } from '#shared/engine/parser'
+import { cappedPoints } from '#shared/engine/marking'
 
 import type { Eye, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
 
@@ -186,6 +187,7 @@ export function attemptResultOf(attemptId: number, grade: AttemptGrade): Attempt
     marks: grade.marks,
     score: grade.score,
     points: grade.points,
+    cap: grade.cap,
     slips: grade.slips,
     explanation: grade.explanation,
     modelRecord: grade.modelRecord,
@@ -198,13 +200,18 @@ export function attemptResultOf(attemptId: number, grade: AttemptGrade): Attempt
 /** The same result rebuilt from a stored row, exactly as it was first shown (nothing regraded). */
 export function attemptResultFromRow(row: AttemptRow): AttemptResult {
   const parsed = JSON.parse(row.parsed_json)
+  const marks = JSON.parse(row.marks_json)
+  const slips = JSON.parse(row.slips_json)
+  // the cap is shown only where the stored points were capped (rows graded before the cap keep their score)
+  const capped = cappedPoints(marks, slips)
   const out: AttemptResult = {
     attemptId: row.id,
     readAs: row.read_as ?? readAsLine(parsed),
-    marks: JSON.parse(row.marks_json),
+    marks,
     score: row.score,
     points: { earned: row.points_earned, possible: row.points_possible },
-    slips: JSON.parse(row.slips_json),
+    cap: capped.cap && Math.abs(capped.earned - row.points_earned) < 1e-9 ? capped.cap : null,
+    slips,
     explanation: row.explanation_json ? JSON.parse(row.explanation_json) : [],
     modelRecord: row.model_record ?? JSON.parse(row.truth_json).modelRecord,
     truth: JSON.parse(row.truth_json),

@@ -5,8 +5,10 @@
 import { assemble } from './record/assemble'
 import { lex } from './record/lexicon'
 import { rawTokens } from './record/raw'
+import { correctSpellings } from './record/spelling'
 import type { ParsedRecord } from './record/types'
 
+export type { SpellingCorrection } from './record/spelling'
 export type { EyeRecord, GazeSection, NotPerformedReason, ParsedRecord, ProblemCode, RecordProblem, TestName } from './record/types'
 export { PROBLEM_CODES } from './record/types'
 export { GAZE_LABEL, formatEyeRecord, gazeLabel, readAsLine } from './record/format'
@@ -28,9 +30,19 @@ export function parseRecord(text: string): ParsedRecord {
       notes: [],
       unread: [],
       problems: [{ code: 'nothing-recorded', message: 'Nothing is written yet.' }],
+      spelling: [],
     }
   }
-  const { sections, globals, problems } = assemble(lex(rawTokens(input)))
+  // a word nothing could read may be a misspelling of one of the trade's words: read it as that word, once
+  const raw = rawTokens(input)
+  let sems = lex(raw)
+  const unreadAt = sems.flatMap(x => (x.k === 'unread' && x.at !== undefined ? [x.at] : []))
+  const { tokens, corrections, unclear } = correctSpellings(raw, unreadAt)
+  if (corrections.length > 0) sems = lex(tokens)
+  const { sections, globals, problems } = assemble(sems)
+  for (const u of unclear) {
+    problems.push({ code: 'unclear-spelling', text: u.written, message: `"${u.written}" is as close to ${u.meanings.join(' as to ')}: write the word out.` })
+  }
   const first = sections[0]!
   const unread = [...globals.unread]
   if (text.length > MAX_RECORD_LENGTH) unread.push(text.slice(MAX_RECORD_LENGTH, MAX_RECORD_LENGTH + 40))
@@ -45,6 +57,7 @@ export function parseRecord(text: string): ParsedRecord {
     notes: globals.notes,
     unread,
     problems,
+    spelling: corrections,
   }
   if (first.gazeDegrees !== undefined) out.gazeDegrees = first.gazeDegrees
   if (first.total) out.total = first.total

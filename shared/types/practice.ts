@@ -1,6 +1,7 @@
 // Response shapes of the practice routes and the record checker, shared by the
 // routes (which `satisfies` them) and the pages. Nothing here is secret: a case's
 // truth appears only in `CaseTruthView`, sent once an attempt is in.
+import type { MarkCap } from '#shared/engine/marking'
 import type { PatientTurnsResult, Presentation } from '#shared/engine/presentation'
 import type { ParsedRecord } from '#shared/engine/parser'
 import type { Slip } from '#shared/engine/slips'
@@ -65,6 +66,8 @@ export interface AttemptResult {
   marks: MarkView[]
   score: number
   points: { earned: number, possible: number }
+  /** Set when a critical slip holds the score to at most half. */
+  cap: MarkCap | null
   slips: Slip[]
   explanation: string[]
   modelRecord: string
@@ -124,6 +127,7 @@ export interface RecordCheckResult {
   marks: MarkView[]
   score: number
   points: { earned: number, possible: number }
+  cap: MarkCap | null
   slips: Slip[]
   modelRecord: string
   explanation: string[]

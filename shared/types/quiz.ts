@@ -1,4 +1,5 @@
 // Response shapes of the quiz routes, shared by the routes and the pages.
+import type { MarkCap } from '../engine/marking'
 import type { Presentation, PatientTurnsResult } from '../engine/presentation'
 import type { Distance, Gaze, Lights, Mode, PerEye, Prism, Eye } from '../engine/types'
 import type { NarrowedRanges } from '../schemas/casebook'
@@ -198,6 +199,8 @@ export interface ItemCell {
   possible: number | null
   marks: EffectiveMark[]
   slips: string[]
+  /** Set when a critical slip holds the item to at most half its points. */
+  cap: MarkCap | null
   overridden: boolean
   /** Saved bench state but nothing submitted. */
   draftOnly: boolean

@@ -1,5 +1,6 @@
 // Grading a learner's attempt on a case, and what the learner may see afterwards.
 
+import { hasDirection } from '#shared/engine/marking'
 import { netVerticalPrism, prismInducedExcyclo } from '#shared/engine/optics'
 import type { InterpretationBody } from '#shared/engine/schemas'
 import type { Distance, Gaze, Lights, Mode, Muscle, PerEye, Prism, RecordedDirection } from '#shared/engine/types'
@@ -64,7 +65,7 @@ export function revealTruth(c: Case, gaze: Gaze, distance?: Distance, tolerance?
     gaze,
     torsion: { ...f.reported },
     objectiveTorsion: { ...f.torsion },
-    directions: mapEyes(f.reported, t => (Math.abs(t) < 0.5 ? 'none' : t > 0 ? 'excyclo' : 'incyclo')),
+    directions: mapEyes(f.reported, t => (!hasDirection(t) ? 'none' : t > 0 ? 'excyclo' : 'incyclo')),
     levelAt: horizontalAtFor(c, gaze),
     palsiedMuscles: [...c.palsiedMuscles],
     modelRecord: mustNotTest(c) ? NOT_PERFORMED_RECORD : modelRecord({ torsion: f.reported, gaze, distance, tolerance }),

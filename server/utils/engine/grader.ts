@@ -1,15 +1,22 @@
-// The grader (domain.md §5.2): marks per criterion, each with a short reason;
-// tolerance with partial credit inside twice it; configurable weights;
-// error-carried-forward from the learner's own dial readings; slips (§5.3).
+// The grader (domain.md §5.2): marks per criterion, each with a reason that quotes
+// the record; the tolerance for the amount only, with partial credit inside twice it;
+// signed findings for direction and eye; configurable weights; error-carried-forward
+// from the learner's own dial readings; slips (§5.3), each counted once; the cap of
+// critical slips (shared/engine/marking.ts).
 
 import { readingToTorsion, torsionToReading, wrapAxisDifference } from '#shared/engine/dial'
 import { parseRecord, readAsLine, GAZE_LABEL } from '#shared/engine/parser'
 import type { EyeRecord, GazeSection, ParsedRecord } from '#shared/engine/parser'
+import { MISLEADING_LEAD, cappedPoints, hasDirection, isCriticalSlip } from '#shared/engine/marking'
+import type { MarkCap } from '#shared/engine/marking'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { Slip, SlipCode } from '#shared/engine/slips'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 import { EYES, otherEye } from '#shared/engine/types'
 import { NOT_PERFORMED_RECORD, modelRecord } from './modelRecord'
+import { eyesSwapped, judgeEye, likeliestEye } from './grade-eyes'
+import type { EyeVerdict } from './grade-eyes'
+import { degWords, eyeWords, findingWords, misleadingWords, wroteWords } from './grade-words'
 
 export const GRADE_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason'] as const
 export type GradeCriterion = (typeof GRADE_CRITERIA)[number]
@@ -29,8 +36,6 @@ export const DEFAULT_GRADE_WEIGHTS: Record<GradeCriterion, number> = {
 export const DEFAULT_GRADE_TOLERANCE = 2
 /** Patient-turns: how closely the learner must read the scale where the patient left the rod. */
 export const DEFAULT_GRADE_READING_TOLERANCE = 1
-/** An "amount" this large can only be a figure copied off the dial. */
-export const DIAL_FIGURE_FROM = 45
 
 export interface GradeOptions {
   tolerance?: number
@@ -50,9 +55,11 @@ export interface GradeResult {
   readAs: string
   parsed: ParsedRecord
   marks: GradeMark[]
-  /** Weighted score, 0–1. */
+  /** Weighted score, 0–1, after the cap of critical slips. */
   score: number
   points: { earned: number, possible: number }
+  /** Set when a critical slip holds the score to at most half. */
+  cap: MarkCap | null
   slips: Slip[]
   modelRecord: string
   explanation: string[]
@@ -77,10 +84,6 @@ export interface RecordGradeInput {
   options?: GradeOptions
 }
 
-const eyeName = (e: Eye): string => (e === 'RE' ? 'right eye' : 'left eye')
-const deg = (v: number): string => `${Math.round(Math.abs(v) * 10) / 10}°`
-const dirWord = (t: number): string => (t > 0 ? 'excyclo' : t < 0 ? 'incyclo' : 'no torsion')
-const finding = (t: number): string => (Math.abs(t) < 0.05 ? 'no torsion' : `${deg(t)} ${dirWord(t)}`)
 const band = (err: number, tol: number): number => (err <= tol ? 1 : err <= 2 * tol ? 0.5 : 0)
 // a per-eye criterion is only as good as the worse eye: a wrong right eye is not halved by a correct left eye
 const worst = (xs: number[]): number => (xs.length === 0 ? 1 : Math.min(...xs))
@@ -89,77 +92,6 @@ const worst = (xs: number[]): number => (xs.length === 0 ? 1 : Math.min(...xs))
 function sectionFor(p: ParsedRecord, gaze?: Gaze): GazeSection {
   if (gaze && p.sections.length > 1) return p.sections.find(s => s.gaze === gaze) ?? p.sections[0]!
   return p.sections[0]!
-}
-
-/** How far a recorded entry is from a signed torsion, for deciding which eye it was meant for. */
-function misfit(r: EyeRecord | undefined, t: number, flip = false): number {
-  // nothing written, or "no torsion": the whole torsion is unexplained
-  if (!r || r.direction === 'none' || r.amount === null) return Math.abs(t)
-  const a = r.amount >= DIAL_FIGURE_FROM ? Math.abs(r.amount - 90) : r.amount
-  if (r.direction === null) return Math.abs(a - Math.abs(t))
-  const s = (r.direction === 'incyclo' ? -a : a) * (flip ? -1 : 1)
-  return Math.abs(s - t)
-}
-
-interface EyeVerdict {
-  amount: number
-  direction: number
-  slips: Slip[]
-  amountReason: string
-  directionReason: string
-}
-
-function judge(r: EyeRecord, t: number, eye: Eye, tol: number): EyeVerdict {
-  const slips: Slip[] = []
-  let amount: number
-  let amountReason: string
-  const a = r.direction === 'none' ? 0 : r.amount
-  if (a === null) {
-    amount = 0
-    amountReason = `${eye}: no amount.`
-    slips.push({ code: 'amount-missing', eye })
-  }
-  else if (a >= DIAL_FIGURE_FROM && a <= 180) {
-    amount = 0
-    amountReason = `${eye}: ${a}° is a dial figure; the amount is the change from 90°.`
-    slips.push({ code: 'dial-value-as-amount', eye, detail: `wrote ${a}°; ${Math.abs(a - 90)}° from 90° is the amount` })
-  }
-  else {
-    const err = Math.abs(a - Math.abs(t))
-    amount = band(err, tol)
-    amountReason
-      = amount === 1
-        ? `${eye}: ${a}° is within ${tol}° of ${deg(t)}.`
-        : `${eye}: ${a}° is ${deg(err)} from ${deg(t)}${amount === 0.5 ? ' (partial credit within twice the tolerance)' : ''}.`
-    if (err > tol) slips.push({ code: 'amount-off', eye, detail: `${a}° recorded, ${deg(t)} found` })
-  }
-  let direction: number
-  let directionReason: string
-  if (Math.abs(t) <= tol) {
-    const missing = r.direction === null && (r.amount ?? 0) > 0
-    direction = missing ? 0 : 1
-    directionReason = missing ? `${eye}: no direction given.` : `${eye}: no meaningful torsion to give a direction to.`
-    if (missing) slips.push({ code: 'direction-missing', eye })
-  }
-  else if (r.direction === null) {
-    direction = 0
-    directionReason = `${eye}: no direction given.`
-    slips.push({ code: 'direction-missing', eye })
-  }
-  else if (r.direction === 'none') {
-    direction = 0
-    directionReason = `${eye}: recorded no torsion, but the eye is ${dirWord(t)}torted.`
-  }
-  else if ((r.direction === 'excyclo') === (t > 0)) {
-    direction = 1
-    directionReason = `${eye}: ${r.direction} is right.`
-  }
-  else {
-    direction = 0
-    directionReason = `${eye}: ${r.direction} is reversed; the eye is ${dirWord(t)}torted.`
-    slips.push({ code: 'direction-reversed', eye })
-  }
-  return { amount, direction, slips, amountReason, directionReason }
 }
 
 interface Reference {
@@ -179,16 +111,31 @@ function references(input: RecordGradeInput, eye: Eye): Reference[] {
 /** Say which reading rule a reversed direction matches, so the slip-patterns page can spot a swapped rule. */
 function ruleHint(eye: Eye, reading: number): string {
   const other = otherEye(eye)
-  return `with ${deg(reading)} on the ${eyeName(eye)} dial, this is the ${eyeName(other)}'s rule (${other === 'RE' ? 'reading − 90' : '90 − reading'}) or the tilt of the image`
+  return `with ${degWords(reading)} on the ${eyeWords(eye)}'s dial, this is the ${eyeWords(other)}'s rule (${other === 'RE' ? 'reading − 90' : '90 − reading'}) or the tilt of the image`
 }
 
 function weightOf(opts: GradeOptions | undefined, c: GradeCriterion): number {
   return opts?.weights?.[c] ?? DEFAULT_GRADE_WEIGHTS[c]
 }
 
-function finish(parsed: ParsedRecord, marks: GradeMark[], slips: Slip[], model: string, explanation: string[]): GradeResult {
-  const possible = marks.reduce((a, m) => a + m.weight, 0)
-  const earned = marks.reduce((a, m) => a + m.weight * m.score, 0)
+/** Each slip once: the same code on the same eye is one slip. */
+function uniqueSlips(slips: Slip[]): Slip[] {
+  const seen = new Set<string>()
+  return slips.filter((s) => {
+    const key = `${s.code}/${s.eye ?? ''}`
+    if (seen.has(key)) return false
+    seen.add(key)
+    return true
+  })
+}
+
+function finish(parsed: ParsedRecord, marks: GradeMark[], rawSlips: Slip[], model: string, explanation: string[]): GradeResult {
+  const slips = uniqueSlips(rawSlips)
+  const { earned, possible, cap } = cappedPoints(marks, slips)
+  const critical = slips.filter(s => isCriticalSlip(s.code))
+  const lead: string[] = critical.length
+    ? [`${MISLEADING_LEAD}: ${[...new Set(critical.map(misleadingWords))].join('; ')}. A record with a critical slip scores at most half the points.`]
+    : []
   const seen = new Set<SlipCode>()
   for (const s of slips) {
     if (seen.has(s.code)) continue
@@ -202,9 +149,10 @@ function finish(parsed: ParsedRecord, marks: GradeMark[], slips: Slip[], model: 
     marks,
     score: possible === 0 ? 0 : earned / possible,
     points: { earned, possible },
+    cap,
     slips,
     modelRecord: model,
-    explanation,
+    explanation: [...lead, ...explanation],
   }
 }
 
@@ -217,7 +165,9 @@ function gradeNotTestable(input: RecordGradeInput, parsed: ParsedRecord): GradeR
     criterion: 'action',
     weight: weightOf(o, 'action'),
     score: stopped ? 1 : 0,
-    reason: stopped ? 'Right: you stopped instead of recording a misleading result.' : 'This patient sees one streak only; the test should not have been recorded as performed.',
+    reason: stopped
+      ? 'Right: you stopped instead of recording a misleading result.'
+      : `You recorded a measurement (${readAsLine(parsed)}); this patient sees one streak only, so the test should have been stopped.`,
   })
   if (!stopped) slips.push({ code: 'should-not-test' })
   const reasons = parsed.notPerformed?.reasons ?? []
@@ -240,9 +190,9 @@ function testMark(parsed: ParsedRecord, o: GradeOptions | undefined, slips: Slip
     case 'double-maddox-rod':
       return { criterion: 'test', weight, score: 1, reason: 'Test named: double Maddox rod.' }
     case 'maddox-rod':
-      return { criterion: 'test', weight, score: 0.5, reason: 'Say which Maddox rod test: double Maddox rod (DMR).' }
+      return { criterion: 'test', weight, score: 0.5, reason: 'You wrote "Maddox rod": say which test, double Maddox rod (DMR).' }
     case 'single-maddox-rod':
-      return { criterion: 'test', weight, score: 0, reason: 'The test done was the double Maddox rod, not the single.' }
+      return { criterion: 'test', weight, score: 0, reason: 'You named the single Maddox rod; the test done was the double Maddox rod.' }
     default:
       slips.push({ code: 'test-unnamed' })
       return { criterion: 'test', weight, score: 0, reason: 'The test is not named.' }
@@ -263,8 +213,8 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
   const model = modelRecord({ torsion: input.expected, gaze: input.gaze ?? 'primary', distance: input.distance, tolerance: tol })
   const gazeName = input.gaze ? GAZE_LABEL[input.gaze].toLowerCase() : 'this position'
   explanation.push(
-    `Finding in ${gazeName}: RE ${finding(input.expected.RE)} (level at ${deg(torsionToReading('RE', input.expected.RE))} on the dial), LE ${finding(input.expected.LE)} (level at ${deg(torsionToReading('LE', input.expected.LE))}).`,
-    'Cyclodial\'s dial marks the rod axis, 90° at no torsion. Right eye: torsion = reading − 90. Left eye: torsion = 90 − reading. Positive = excyclo.',
+    `Finding in ${gazeName}: RE ${findingWords(input.expected.RE)} (level at ${degWords(torsionToReading('RE', input.expected.RE))} on the dial), LE ${findingWords(input.expected.LE)} (level at ${degWords(torsionToReading('LE', input.expected.LE))}).`,
+    'Cyclodial\'s dial marks the rod axis, 90° at no torsion. Right eye: torsion = reading − 90. Left eye: torsion = 90 − reading. Positive = excyclo. An eye under 1° has no torsion worth a direction.',
   )
 
   if (parsed.notPerformed) {
@@ -288,15 +238,15 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
         const at = input.patientSettings[eye]
         const err = Math.abs(wrapAxisDifference(r - at))
         scores.push(band(err, readTol))
-        reasons.push(err <= readTol ? `${eye}: read ${deg(r)} correctly.` : `${eye}: read ${deg(r)} but the patient left the rod at ${deg(at)}.`)
-        if (err > readTol) slips.push({ code: 'not-parallel', eye, detail: `read ${deg(r)}, rod at ${deg(at)}` })
+        reasons.push(err <= readTol ? `${eye}: you read ${degWords(r)}, where the patient left the rod.` : `${eye}: you read ${degWords(r)}, but the patient left the rod at ${degWords(at)}.`)
+        if (err > readTol) slips.push({ code: 'not-parallel', eye, detail: `read ${degWords(r)}, rod at ${degWords(at)}` })
       }
       else {
         const at = input.levelAt?.[eye] ?? torsionToReading(eye, input.expected[eye])
         const err = Math.abs(wrapAxisDifference(r - at))
         scores.push(band(err, tol))
-        reasons.push(err <= tol ? `${eye}: ${deg(r)} is where the line looks level.` : `${eye}: the line looks level at ${deg(at)}, not ${deg(r)}.`)
-        if (err > tol) slips.push({ code: 'not-parallel', eye, detail: `set ${deg(r)}, level at ${deg(at)}` })
+        reasons.push(err <= tol ? `${eye}: you set ${degWords(r)}, where the line looks level.` : `${eye}: you set ${degWords(r)}; the line looks level at ${degWords(at)}.`)
+        if (err > tol) slips.push({ code: 'not-parallel', eye, detail: `set ${degWords(r)}, level at ${degWords(at)}` })
       }
     }
     marks.push({ criterion: 'measurement', weight: weightOf(o, 'measurement'), score: worst(scores), reason: reasons.join(' ') })
@@ -312,7 +262,7 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
     marks.push({ criterion: 'gaze', weight: gw, score: 0, reason: 'The position of gaze is not stated.' })
   }
   else if (input.gaze && section.gaze !== input.gaze) {
-    marks.push({ criterion: 'gaze', weight: gw, score: 0, reason: `Recorded ${GAZE_LABEL[section.gaze].toLowerCase()}, but the measurement was in ${gazeName}.` })
+    marks.push({ criterion: 'gaze', weight: gw, score: 0, reason: `You wrote ${GAZE_LABEL[section.gaze].toLowerCase()}, but the measurement was in ${gazeName}.` })
   }
   else {
     marks.push({ criterion: 'gaze', weight: gw, score: 1, reason: `Position of gaze: ${GAZE_LABEL[section.gaze].toLowerCase()}.` })
@@ -322,10 +272,43 @@ export function gradeRecord(input: RecordGradeInput): GradeResult {
   if (input.distance) {
     const dw = weightOf(o, 'distance')
     if (parsed.distance === null) marks.push({ criterion: 'distance', weight: dw, score: 0, reason: 'The fixation distance is not stated.' })
-    else if (parsed.distance !== input.distance) marks.push({ criterion: 'distance', weight: dw, score: 0, reason: `Recorded ${parsed.distance}, but the fixation was at ${input.distance}.` })
+    else if (parsed.distance !== input.distance) marks.push({ criterion: 'distance', weight: dw, score: 0, reason: `You wrote ${parsed.distance}, but the fixation was at ${input.distance}.` })
     else marks.push({ criterion: 'distance', weight: dw, score: 1, reason: `Fixation distance: ${input.distance}.` })
   }
   return finish(parsed, marks, slips, model, explanation)
+}
+
+type Push = (criterion: 'direction' | 'amount' | 'eye', score: number, reason: string) => void
+
+/** No finding placed against an eye: a total, a finding without an eye, or nothing at all. */
+function gradeWithoutEyes(input: RecordGradeInput, section: GazeSection, tol: number, push: Push, slips: Slip[]) {
+  const t = input.expected
+  if (section.total && section.total.amount !== null) {
+    const v = judgeEye(section.total, t.RE + t.LE, 'RE', tol, 'Total')
+    push('direction', v.direction, v.directionReason)
+    push('amount', v.amount, v.amountReason)
+    slips.push(...v.slips.map(({ eye: _e, ...s }) => s))
+    push('eye', 0, 'A total does not say which eye is torted.')
+    slips.push({ code: 'eye-missing' })
+    return
+  }
+  const unplaced = section.unplaced?.[0]
+  if (unplaced) {
+    // the finding is marked as written; only the eye is missing (one slip, not two)
+    const eye = likeliestEye(unplaced, t)
+    const v = judgeEye(unplaced, t[eye], eye, tol, '')
+    push('direction', v.direction, v.directionReason)
+    push('amount', v.amount, v.amountReason)
+    slips.push(...v.slips.filter(s => s.code !== 'amount-missing' && s.code !== 'direction-missing'))
+    push('eye', 0, 'The record does not say which eye the finding belongs to.')
+    // the record gives no way to know which eye was meant, so the slip names none
+    slips.push({ code: 'eye-missing' })
+    return
+  }
+  push('direction', 0, 'No finding is written.')
+  push('amount', 0, 'No finding is written.')
+  push('eye', 0, 'The record does not say which eye is torted.')
+  slips.push({ code: 'amount-missing' }, { code: 'eye-missing' })
 }
 
 function gradeEyes(
@@ -338,53 +321,27 @@ function gradeEyes(
   explanation: string[],
 ) {
   const t = input.expected
-  const significant = (e: Eye) => Math.abs(t[e]) > tol
   const rec = section.eyes
-  const push = (criterion: 'direction' | 'amount' | 'eye', score: number, reason: string) =>
-    marks.push({ criterion, weight: weightOf(o, criterion), score, reason })
+  const push: Push = (criterion, score, reason) => marks.push({ criterion, weight: weightOf(o, criterion), score, reason })
 
-  if (!rec.RE && !rec.LE) {
-    if (section.total && section.total.amount !== null) {
-      const total = t.RE + t.LE
-      const v = judge(section.total, total, 'RE', tol)
-      push('direction', v.direction, `Total: ${v.directionReason.replace(/^RE: /, '')}`)
-      push('amount', v.amount, `Total: ${v.amountReason.replace(/^RE: /, '')}`)
-      slips.push(...v.slips.map(({ eye: _e, ...s }) => s))
-    }
-    else {
-      push('direction', 0, 'No finding could be placed against an eye.')
-      push('amount', 0, 'No finding could be placed against an eye.')
-      if (!section.total) slips.push({ code: 'amount-missing' })
-    }
-    push('eye', 0, 'The record does not say which eye is torted.')
-    slips.push({ code: 'eye-missing' })
-    return
-  }
+  if (!rec.RE && !rec.LE) return gradeWithoutEyes(input, section, tol, push, slips)
 
-  // torsion written against the other eye? (only when that explains the record better
-  // than reading it as written or with its directions reversed)
-  const direct = EYES.reduce((a, e) => a + misfit(rec[e], t[e]), 0)
-  const swapped = EYES.reduce((a, e) => a + misfit(rec[otherEye(e)], t[e]), 0)
-  const reversed = EYES.reduce((a, e) => a + misfit(rec[e], t[e], true), 0)
-  const eyeWrong
-    = EYES.some(significant)
-      && swapped + 0.5 < direct
-      && swapped + 0.5 < reversed
-      && EYES.every(e => !significant(e) || misfit(rec[otherEye(e)], t[e]) <= tol)
-
-  const graded = EYES.filter(e => significant(e) || rec[e] !== undefined)
+  // torsion written against the other eye? Then each entry is judged against the eye it describes
+  const alsoRight = { RE: references(input, 'RE').slice(1).map(r => r.t), LE: references(input, 'LE').slice(1).map(r => r.t) }
+  const swapped = eyesSwapped(rec, t, tol, alsoRight)
   const amounts: number[] = []
   const directions: number[] = []
   const eyeScores: number[] = []
   const aReasons: string[] = []
   const dReasons: string[] = []
   const eReasons: string[] = []
-  for (const e of graded) {
-    const r = rec[eyeWrong ? otherEye(e) : e]
-    if (!r && !significant(e)) continue
-    if (eyeWrong && significant(e)) {
-      slips.push({ code: 'eye-wrong', eye: e, detail: `the ${eyeName(e)}'s torsion was written against the ${eyeName(otherEye(e))}` })
-      eReasons.push(`The torsion belongs to the ${eyeName(e)}.`)
+  for (const e of EYES) {
+    const written = swapped ? otherEye(e) : e
+    const r: EyeRecord | undefined = rec[written]
+    if (!r && !hasDirection(t[e])) continue
+    if (swapped && hasDirection(t[e])) {
+      slips.push({ code: 'eye-wrong', eye: e, detail: `the ${eyeWords(e)}'s torsion was written against the ${eyeWords(otherEye(e))}` })
+      eReasons.push(`${wroteWords(written, r)}; that is the ${eyeWords(e)}'s finding (${findingWords(t[e])}).`)
       eyeScores.push(0)
     }
     if (!r) {
@@ -393,15 +350,15 @@ function gradeEyes(
       eyeScores.push(0)
       aReasons.push(`${e}: not recorded.`)
       dReasons.push(`${e}: not recorded.`)
-      eReasons.push(`The ${eyeName(e)} (${finding(t[e])}) is not recorded.`)
+      eReasons.push(`${wroteWords(e, undefined)}; it has ${findingWords(t[e])}.`)
       slips.push({ code: 'eye-missing', eye: e })
       continue
     }
-    if (!eyeWrong) eyeScores.push(1)
-    const refs = eyeWrong ? [{ kind: 'finding' as const, t: t[e] }] : references(input, e)
+    if (!swapped) eyeScores.push(1)
+    const refs = swapped ? [{ kind: 'finding' as const, t: t[e] }] : references(input, e)
     let best: { v: EyeVerdict, ref: Reference } | null = null
     for (const ref of refs) {
-      const v = judge(r, ref.t, e, tol)
+      const v = judgeEye(r, ref.t, e, tol, written)
       if (!best || v.amount + v.direction > best.v.amount + best.v.direction) best = { v, ref }
     }
     const { v, ref } = best!
@@ -410,17 +367,16 @@ function gradeEyes(
     const carried = ref.kind === 'own-reading' && Math.abs(ref.t - t[e]) > tol
     aReasons.push(v.amountReason + (carried ? ' (follows from your own reading: error carried forward)' : ''))
     dReasons.push(v.directionReason + (carried ? ' (follows from your own reading)' : ''))
+    // the dial that was read for this eye's torsion names the rule a reversed direction matches
     const own = input.readings?.[e]
     slips.push(...v.slips.map(sl => (sl.code === 'direction-reversed' && own !== undefined ? { ...sl, detail: ruleHint(e, own) } : sl)))
     if (carried) {
-      explanation.push(
-        `${e}: your record converts your own reading correctly, so only the measurement mark is lost (error carried forward).`,
-      )
+      explanation.push(`${e}: your record converts your own reading correctly, so only the measurement mark is lost (error carried forward).`)
     }
   }
   push('direction', worst(directions), dReasons.join(' '))
   push('amount', worst(amounts), aReasons.join(' '))
-  push('eye', eyeWrong ? 0 : worst(eyeScores), eReasons.length ? eReasons.join(' ') : 'Torsion attributed to the correct eye(s).')
+  push('eye', swapped ? 0 : worst(eyeScores), eReasons.length ? eReasons.join(' ') : 'Each finding is written against the right eye.')
 
   if (section.total && section.total.amount !== null && section.total.direction && section.total.direction !== 'none') {
     const sum = EYES.reduce((a, e) => {
@@ -429,6 +385,6 @@ function gradeEyes(
       return a + (r.direction === 'incyclo' ? -r.amount : r.direction === 'excyclo' ? r.amount : 0)
     }, 0)
     const total = section.total.direction === 'incyclo' ? -section.total.amount : section.total.amount
-    if (Math.abs(sum - total) > 1) explanation.push(`Your total (${finding(total)}) does not match the sum of your eyes (${finding(sum)}).`)
+    if (Math.abs(sum - total) > 1) explanation.push(`Your total (${findingWords(total)}) does not match the sum of your eyes (${findingWords(sum)}).`)
   }
 }

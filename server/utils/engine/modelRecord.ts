@@ -1,6 +1,7 @@
 // The model record: how a complete, correct record of the finding reads.
 // It is written in words the record parser reads back to the same finding.
 
+import { hasDirection } from '#shared/engine/marking'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 
 const GAZE_WORDS: Record<Gaze, string> = {
@@ -20,9 +21,10 @@ export function roundModelAmount(v: number, tolerance = 2): number {
   return tolerance < 1 ? Math.round(v * 10) / 10 : Math.round(v)
 }
 
+/** An eye under 1° is written "no torsion", so the model never contradicts a record that earned full marks. */
 export function modelEyeFinding(eye: Eye, torsion: number, tolerance = 2): string {
   const a = roundModelAmount(Math.abs(torsion), tolerance)
-  if (a === 0) return `${eye} no torsion`
+  if (!hasDirection(torsion) || a === 0) return `${eye} no torsion`
   return `${eye} ${a}° ${torsion > 0 ? 'excyclotorsion' : 'incyclotorsion'}`
 }
 

@@ -11,5 +11,5 @@ import { effectiveMarks, feedbackMarks, loadOverrides } from './results'
 export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean, audience: 'student' | 'staff' = 'student'): Promise<StudentItemFeedback> {
   const overrides = (await loadOverrides(db, attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
   const marks = effectiveMarks(attempt, config, interpretationOn, overrides)
-  return { ...attemptResultFromRow(attempt), ...feedbackMarks(marks, audience) }
+  return { ...attemptResultFromRow(attempt), ...feedbackMarks(marks, audience, JSON.parse(attempt.slips_json) as { code: string }[]) }
 }

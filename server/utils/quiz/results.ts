@@ -7,6 +7,7 @@ import type { Kysely } from 'kysely'
 import type { QuizCriterion } from '#shared/schemas/quiz'
 import { QUIZ_CRITERIA, criteriaOfKind } from '#shared/schemas/quiz'
 import type { FundusGradeResult } from '#shared/engine/fundus/result'
+import { cappedPoints } from '#shared/engine/marking'
 import type { AttemptRow, Database, QuizItemRow, QuizRow, QuizSittingRow } from '~~/db/schema'
 import type { QuizItemConfig } from './items'
 import { readItemConfig } from './items'
@@ -56,18 +57,22 @@ export function effectiveMarks(attempt: Pick<AttemptRow, 'marks_json' | 'interpr
   return applyOverrides(marks, overrides)
 }
 
-export const pointsOf = (marks: EffectiveMark[]) => ({
-  earned: marks.reduce((a, m) => a + m.weight * m.score, 0),
-  possible: marks.reduce((a, m) => a + m.weight, 0),
-})
+/**
+ * Points of marks as they stand, the quiz's weights applied and then the cap of critical
+ * slips (at most half the points while the slip's criterion is not overridden to full marks).
+ */
+export function pointsOf(marks: EffectiveMark[], slips: readonly { code: string }[] = []): { earned: number, possible: number } {
+  const { earned, possible } = cappedPoints(marks, slips)
+  return { earned, possible }
+}
 
 /**
  * Marks as feedback shows them, with the score and points they make, for either item
  * kind. A student reads a tutor's change inside the mark's reason; staff see each
  * change, with its reason, in the list of changes beside the marks.
  */
-export function feedbackMarks(marks: EffectiveMark[], audience: 'student' | 'staff') {
-  const points = pointsOf(marks)
+export function feedbackMarks(marks: EffectiveMark[], audience: 'student' | 'staff', slips: readonly { code: string }[] = []) {
+  const { cap, ...points } = cappedPoints(marks, slips)
   return {
     marks: marks.map(m => ({
       criterion: m.criterion,
@@ -78,6 +83,7 @@ export function feedbackMarks(marks: EffectiveMark[], audience: 'student' | 'sta
     })),
     score: points.possible ? points.earned / points.possible : 0,
     points,
+    cap,
   }
 }
 
@@ -141,15 +147,15 @@ export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: D
         : mine.filter(a => a.quiz_item_id === col.id)
       const counted = onItem.at(-1)
       if (!counted) {
-        items[col.id] = { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], overridden: false, draftOnly: hasDraft.has(`${st.id}/${col.id}`) }
+        items[col.id] = { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], cap: null, overridden: false, draftOnly: hasDraft.has(`${st.id}/${col.id}`) }
         continue
       }
       const marks = col.config.kind === 'fundus' && 'result_json' in counted
         ? applyOverrides(fundusMarksOf(JSON.parse(counted.result_json) as FundusGradeResult, col.config.weights), fundusOverridesOf.get(counted.id) ?? [])
         : effectiveMarks(counted as typeof attempts[number], col.config, interpretationOn, overridesOf.get(counted.id) ?? [])
-      const pts = pointsOf(marks)
       // slips are the double Maddox rod record's; a fundus item has marks, not record slips
       const slipCodes = 'slips_json' in counted ? (JSON.parse(counted.slips_json) as { code: string }[]).map(s => s.code) : []
+      const pts = cappedPoints(marks, slipCodes.map(code => ({ code })))
       for (const m of marks) if (m.weight > 0) seenCriteria.get(col.id)!.add(m.criterion)
       maxPossible.set(col.id, Math.max(maxPossible.get(col.id) ?? 0, pts.possible))
       items[col.id] = {
@@ -160,6 +166,7 @@ export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: D
         possible: pts.possible,
         marks,
         slips: slipCodes,
+        cap: pts.cap,
         overridden: marks.some(m => m.override),
         draftOnly: false,
       }

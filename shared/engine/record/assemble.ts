@@ -167,9 +167,25 @@ interface SectionBuilder extends GazeSection {
   hasFindings: boolean
   lastOwner: Owner
   noneForBoth: boolean
+  /** The one eye the previous position of gaze recorded: "LE 4° ex primary, 7° ex downgaze" names it once. */
+  carryEye?: Eye
 }
 
-const newSection = (): SectionBuilder => ({ gaze: null, eyes: {}, hasFindings: false, lastOwner: null, noneForBoth: false })
+function newSection(previous?: SectionBuilder): SectionBuilder {
+  const s: SectionBuilder = { gaze: null, eyes: {}, hasFindings: false, lastOwner: null, noneForBoth: false }
+  if (previous && !previous.total) {
+    // the eye written once: the only eye named, or the only eye given torsion ("RE nil. LE 4 ex …")
+    const named = (['RE', 'LE'] as const).filter(e => previous.eyes[e])
+    const torted = named.filter((e) => {
+      const r = previous.eyes[e]!
+      return r.direction === 'excyclo' || r.direction === 'incyclo' || (r.direction === null && (r.amount ?? 0) > 0)
+    })
+    if (torted.length === 1) s.carryEye = torted[0]
+    else if (named.length === 1) s.carryEye = named[0]
+    else if (named.length === 0 && previous.carryEye) s.carryEye = previous.carryEye
+  }
+  return s
+}
 
 function putEye(s: SectionBuilder, eye: Eye, rec: EyeRecord, problems: RecordProblem[], text: string) {
   const prev = s.eyes[eye]
@@ -260,7 +276,7 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[], globals: Glo
     if (item.kind === 'gaze') {
       if (gazeFirst) {
         if (current.hasFindings) {
-          current = newSection()
+          current = newSection(current)
           sections.push(current)
         }
         setGaze(item)
@@ -270,7 +286,7 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[], globals: Glo
       }
       else {
         if (closed) {
-          current = newSection()
+          current = newSection(current)
           sections.push(current)
         }
         setGaze(item)
@@ -279,12 +295,13 @@ export function assemble(tokens: Tok[]): { sections: GazeSection[], globals: Glo
       continue
     }
     const c = item.clause
-    if (!gazeFirst && closed && c.owner !== null) {
+    const ownerlessFinding = c.owner === null && c.toks.some(t => t.k === 'num' || t.k === 'range')
+    if (!gazeFirst && closed && (c.owner !== null || ownerlessFinding)) {
       // findings after a closing position of gaze start the next section —
       // unless no further position of gaze follows, then they belong to the last one
       const moreGazes = items.slice(items.indexOf(item)).some(x => x.kind === 'gaze')
       if (moreGazes) {
-        current = newSection()
+        current = newSection(current)
         sections.push(current)
         closed = false
       }
@@ -371,10 +388,15 @@ function attachOwnerless(s: SectionBuilder, rec: EyeRecord, problems: RecordProb
       return
     }
   }
+  if (last === null && s.carryEye && !s.eyes.RE && !s.eyes.LE && !s.total) {
+    putEye(s, s.carryEye, rec, problems, text)
+    return
+  }
   if (rec.direction === 'none' && !s.hasFindings) {
     s.noneForBoth = true
     return
   }
+  s.unplaced = [...(s.unplaced ?? []), rec]
   problems.push({
     code: 'amount-without-eye',
     text,
@@ -397,6 +419,7 @@ function finishSection(s: SectionBuilder, problems: RecordProblem[]): GazeSectio
     }
   }
   const out: GazeSection = { gaze: s.gaze, eyes: s.eyes }
+  if (s.unplaced) out.unplaced = s.unplaced
   if (s.gazeDegrees !== undefined) out.gazeDegrees = s.gazeDegrees
   if (s.total) out.total = s.total
   return out

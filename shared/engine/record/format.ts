@@ -61,9 +61,10 @@ export function readAsLine(r: ParsedRecord): string {
   if (r.notPerformed) {
     return [...head, `Not performed: ${r.notPerformed.reasons.map(x => REASON_LABEL[x]).join(', ')}`].join(' · ')
   }
+  const spelling = (r.spelling ?? []).map(c => `Misspelling read: "${c.written}" as "${c.readAs}"`)
   if (r.sections.length === 1) {
     const s = r.sections[0]!
-    return [...head, gazeLabel(s), ...sectionParts(s)].join(' · ')
+    return [...head, gazeLabel(s), ...sectionParts(s), ...spelling].join(' · ')
   }
-  return [...head, ...r.sections.map(s => `${gazeLabel(s)}: ${sectionParts(s).join(', ')}`)].join(' · ')
+  return [...head, ...r.sections.map(s => `${gazeLabel(s)}: ${sectionParts(s).join(', ')}`), ...spelling].join(' · ')
 }

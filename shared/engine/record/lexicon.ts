@@ -24,7 +24,7 @@ export type Sem
     | { k: 'note', text: string }
     | { k: 'notdone' }
     | { k: 'reason', v: NotPerformedReason }
-    | { k: 'unread', text: string }
+    | { k: 'unread', text: string, at?: number }
 
 export interface Hit {
   sem: Sem | null
@@ -70,20 +70,36 @@ const NUMBER_WORDS: Record<string, number> = {
   eighteen: 18, nineteen: 19, twenty: 20, thirty: 30,
 }
 
-const DEGREE_UNITS = ['°', 'deg', 'degs', 'degree', 'degrees', 'dg']
+// ("dg" is not a unit here: clinicians write it for downgaze)
+export const DEGREE_UNITS = ['°', 'deg', 'degs', 'degree', 'degrees']
 const PRISM_UNITS = ['pd', 'prism', 'prisms', 'pdpt', 'dioptre', 'dioptres', 'diopter', 'diopters']
 
-const EX_WORDS = new Set([
+export const EX_WORDS = new Set([
   'ex', 'exc', 'excyc', 'excyclo', 'excyclotorsion', 'excyclotorted', 'excyclotorsional', 'excyclotropia',
   'excyclophoria', 'excyclodeviation', 'excycloduction', 'excyclorotation', 'excycloversion', 'extorsion',
   'extorsional', 'extorted', 'extort', 'extorts', 'extortion', 'excyclotortion', 'extorsions',
+  'excyclorotated', 'exrotated', 'exrotation', 'excyclotorsions', 'extorting', 'excycloposition',
 ])
-const IN_WORDS = new Set([
+export const IN_WORDS = new Set([
   'incyc', 'incyclo', 'incyclotorsion', 'incyclotorted', 'incyclotorsional', 'incyclotropia', 'incyclophoria',
   'incyclodeviation', 'incycloduction', 'incyclorotation', 'incycloversion', 'intorsion', 'intorsional',
   'intorted', 'intort', 'intorts', 'intortion', 'incyclotortion', 'intorsions',
+  'incyclorotated', 'inrotated', 'inrotation', 'incyclotorsions', 'intorting', 'incycloposition',
 ])
 const TORSION_NOUNS = ['torsion', 'cyclotorsion', 'cyclo', 'cyclodeviation', 'cyclotropia', 'cyclophoria', 'tilt', 'rotation']
+/** Words after a hyphenated "in-"/"ex-" that make it a direction: "in-cyclotorsion", "in-rotated". */
+const AFTER_IN = new Set([
+  ...TORSION_NOUNS.filter(x => x !== 'tilt'), 'torted', 'torsional', 'rotated', 'cyclotorted', 'cyclorotated', 'cyclorotation', 'cycloduction',
+  'cycloversion', 'cyclotorsional',
+])
+/** Qualifiers clinicians put between "no" and the torsion: "no measurable cyclotorsion". */
+const NO_QUALIFIERS = new Set([
+  'measurable', 'measureable', 'significant', 'detectable', 'appreciable', 'obvious', 'apparent', 'visible',
+  'manifest', 'demonstrable', 'definite', 'discernible', 'discernable', 'clinically', 'subjective', 'real',
+  'evident', 'relevant', 'notable', 'further', 'any', 'abnormal',
+])
+/** Past participles that make "not …" / "none …" a finding of no torsion: "not detected", "none seen". */
+const NOT_FOUND = new Set(['detected', 'seen', 'found', 'present', 'noted', 'observed', 'evident', 'demonstrated', 'demonstrable', 'apparent', 'elicited', 'shown', 'appreciated'])
 
 export const FILLERS = new Set([
   'the', 'a', 'an', 'at', 'of', 'with', 'for', 'on', 'by', 'to', 'from', 'position', 'eye', 'eyes', 'test',
@@ -323,8 +339,10 @@ const VERSIONS: Record<string, Gaze> = {
   dextrodepression: 'down-right', laevodepression: 'down-left', levodepression: 'down-left',
   elevation: 'up', depression: 'down', upgaze: 'up', downgaze: 'down', sursumversion: 'up', deorsumversion: 'down',
 }
-const UP = ['up', 'upward', 'upwards', 'upgaze', 'upper', 'elevation', 'supraversion']
-const DOWN = ['down', 'downward', 'downwards', 'downgaze', 'lower', 'depression', 'infraversion']
+const UP = ['up', 'upward', 'upwards', 'upgaze', 'upper', 'elevation', 'supraversion', 'ug', 'superior']
+const DOWN = ['down', 'downward', 'downwards', 'downgaze', 'lower', 'depression', 'infraversion', 'dg', 'inferior']
+/** Words that name a vertical position of gaze only with "gaze" after them ("inferior gaze", not "superior oblique"). */
+const NEEDS_GAZE = ['superior', 'inferior']
 const RIGHT = ['right', 'rt', 'r', 'dextroversion']
 const LEFT = ['left', 'lt', 'l', 'laevoversion', 'levoversion']
 const SINGLE_LETTER_SIDES = ['r', 'l', 'rt', 'lt']
@@ -365,6 +383,7 @@ function gazePhrase(t: RawToken[], i: number): { len: number, gaze: Gaze } | nul
     }
     else if (UP.includes(x) || DOWN.includes(x)) {
       if (v) break
+      if (NEEDS_GAZE.includes(x) && !INDICATORS.includes(next)) break
       v = UP.includes(x) ? 'up' : 'down'
       indicated = true
       end = j + 1
@@ -447,25 +466,43 @@ const eye: Rec = (t, i) => {
   return hit(t, i, m[0], { k: 'eye', v: m[1] })
 }
 
+const isTorsionWord = (x: string): boolean => TORSION_NOUNS.includes(x) || EX_WORDS.has(x) || IN_WORDS.has(x) || x === 'torted'
+
+const NONE_WORDS = ['nil', 'none', 'normal', 'nad', 'zero', 'nothing', 'wnl', 'absent', 'untorted', 'neg', 'negative']
+
 const noTorsion: Rec = (t, i) => {
   const x = w(t, i)
-  if (['nil', 'none', 'normal', 'nad', 'zero', 'nothing'].includes(x)) {
-    // "nil torsion", "zero degrees"
+  // "within normal limits", "within normal range", "within normal"
+  if (x === 'within' && w(t, i + 1) === 'normal') {
+    const j = ['limits', 'limit', 'range', 'values'].includes(w(t, i + 2)) ? i + 3 : i + 2
+    return hit(t, i, j - i, { k: 'none' })
+  }
+  if (NONE_WORDS.includes(x)) {
+    // "nil torsion", "zero degrees", "none seen", "none detected"
     let j = i + 1
     if (DEGREE_UNITS.includes(w(t, j)) || TORSION_NOUNS.includes(w(t, j))) j++
+    if (NOT_FOUND.has(w(t, j))) j++
     return hit(t, i, j - i, { k: 'none' })
   }
   if (x === 'no' || x === 'not') {
-    const n = w(t, i + 1)
-    if (TORSION_NOUNS.includes(n) || EX_WORDS.has(n) || IN_WORDS.has(n) || n === 'torted') return hit(t, i, 2, { k: 'none' })
+    // "no torsion", "no measurable cyclotorsion", "no significant excyclo", "not torted"
+    let j = i + 1
+    while (NO_QUALIFIERS.has(w(t, j))) j++
+    if (isTorsionWord(w(t, j))) {
+      j++
+      if (NOT_FOUND.has(w(t, j))) j++
+      return hit(t, i, j - i, { k: 'none' })
+    }
+    // "not detected", "not seen" (after a torsion word or an eye: "torsion not detected")
+    if (x === 'not' && NOT_FOUND.has(w(t, i + 1))) return hit(t, i, 2, { k: 'none' })
   }
   if (x === 'neither') {
     // "neither eye torted", "neither eye shows torsion": no torsion in both eyes
     let j = i + 1
     if (['eye', 'eyes'].includes(w(t, j))) j++
     if (['is', 'was', 'shows', 'showed', 'has', 'had'].includes(w(t, j))) j++
-    const n = w(t, j)
-    if (j > i + 1 && (TORSION_NOUNS.includes(n) || EX_WORDS.has(n) || IN_WORDS.has(n) || n === 'torted')) return hit(t, i, j - i + 1, { k: 'none' })
+    while (NO_QUALIFIERS.has(w(t, j))) j++
+    if (j > i + 1 && isTorsionWord(w(t, j))) return hit(t, i, j - i + 1, { k: 'none' })
   }
   return null
 }
@@ -495,6 +532,8 @@ const direction: Rec = (t, i) => {
   const x = w(t, i)
   if (EX_WORDS.has(x)) return hit(t, i, 1, { k: 'dir', v: 'excyclo' })
   if (IN_WORDS.has(x) || x === 'inc') return hit(t, i, 1, { k: 'dir', v: 'incyclo' })
+  if (x === 'in' && AFTER_IN.has(w(t, i + 1))) return hit(t, i, 2, { k: 'dir', v: 'incyclo' })
+  if (x === 'ex' && AFTER_IN.has(w(t, i + 1))) return hit(t, i, 2, { k: 'dir', v: 'excyclo' })
   if (x === 'in') {
     // "in" is a preposition before a position of gaze, a distance or "the"
     const next = i + 1
@@ -547,7 +586,7 @@ export function lex(tokens: RawToken[]): Array<Sem & { text: string }> {
       if (h) break
     }
     if (!h) {
-      out.push({ k: 'unread', text: tokens[i]!.text })
+      out.push({ k: 'unread', text: tokens[i]!.text, at: i })
       i++
       continue
     }

@@ -21,6 +21,8 @@ export function normaliseRecordText(text: string): string {
       .replace(/\r?\n/g, ' ; ')
       .replace(DOTTED_ABBREVIATIONS, m => m.replace(/[.\s]/g, ''))
       .replace(/\bn\s*\/\s*a\b/g, ' notapplicable ')
+      // clinic shorthand for positions of gaze: d/g = downgaze, u/g = upgaze, p/p = primary position
+      .replace(/\b([dup])\s*\/\s*([gp])\b/g, (m, a: string, b: string) => (b === 'g' && a !== 'p' ? (a === 'd' ? ' downgaze ' : ' upgaze ') : a === 'p' && b === 'p' ? ' primary ' : m))
       // vertical-deviation notation: R/L = right hyper, L/R = left hyper
       .replace(/\b([rl])\s*\/\s*([rl])\b/g, (_m, a: string, b: string) => (a === b ? ` ${a} / ${b} ` : ` ${a}hyper${b} `))
       .replace(/(\d)([a-z°])/g, '$1 $2')

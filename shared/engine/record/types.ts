@@ -16,6 +16,8 @@ export interface GazeSection {
   gazeDegrees?: number
   eyes: Partial<PerEye<EyeRecord>>
   total?: EyeRecord
+  /** Findings written without an eye ("8° excyclo"): kept so the grader marks them, with the eye missing. */
+  unplaced?: EyeRecord[]
 }
 
 export type NotPerformedReason = 'suppression' | 'one-streak' | 'abnormal-correspondence' | 'unstated'
@@ -36,6 +38,7 @@ export const PROBLEM_CODES = [
   'two-gazes',
   'unclear-total',
   'not-performed-with-findings',
+  'unclear-spelling',
 ] as const
 export type ProblemCode = (typeof PROBLEM_CODES)[number]
 
@@ -68,4 +71,6 @@ export interface ParsedRecord {
   /** Words the parser could not read. */
   unread: string[]
   problems: RecordProblem[]
+  /** Misspelt words read as the trade word they are one or two letters off. */
+  spelling: Array<{ written: string, readAs: string }>
 }

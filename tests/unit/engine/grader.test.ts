@@ -48,7 +48,8 @@ describe('properties', () => {
   test.prop([arbTemplate, arbSeed, arbGaze])('reversing only the direction yields only direction-reversed', (id, seed, gaze) => {
     const c = generateCase(id, seed)
     const t = c.gazes[gaze].reported
-    const torted = (['RE', 'LE'] as Eye[]).filter(e => Math.abs(t[e]) > 2)
+    // signed findings (domain.md §5.2): every eye with 1° or more has a direction to reverse
+    const torted = (['RE', 'LE'] as Eye[]).filter(e => Math.abs(t[e]) >= 1)
     fc.pre(torted.length > 0)
     const good = modelRecord({ torsion: t, gaze, distance: 'near' })
     const reversed = good.replace(/excyclotorsion|incyclotorsion/g, w => (w === 'excyclotorsion' ? 'incyclotorsion' : 'excyclotorsion'))

@@ -32,8 +32,8 @@ describe('results arithmetic and CSV', () => {
       studentId: 1, name, email: 'x@cyclodial.test', cohortId: 1, cohortName: 'Kestrel cohort', status: earned === null ? 'not-started' : 'finished',
       startedAt: null, finishedAt: null, timeTakenMs: earned === null ? null : 90_000,
       items: { 9: earned === null
-        ? { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], overridden: false, draftOnly: false }
-        : { attemptId: 5, attempts: 1, submittedAt: null, earned, possible: 3, marks: [{ criterion: 'amount', score: 1, weight: 2, reason: '' }, { criterion: 'test', score: 0, weight: 1, reason: '' }], slips: ['test-unnamed'], overridden: false, draftOnly: false } },
+        ? { attemptId: null, attempts: 0, submittedAt: null, earned: null, possible: null, marks: [], slips: [], cap: null, overridden: false, draftOnly: false }
+        : { attemptId: 5, attempts: 1, submittedAt: null, earned, possible: 3, marks: [{ criterion: 'amount', score: 1, weight: 2, reason: '' }, { criterion: 'test', score: 0, weight: 1, reason: '' }], slips: ['test-unnamed'], cap: null, overridden: false, draftOnly: false } },
       earned: earned ?? 0, possible: 3, score: (earned ?? 0) / 3, slips: earned === null ? 0 : 1,
     })
     const csv = resultsCsv(columns, [row('Inès Calloway', 2), row('=HYPERLINK("x")', null)])
