@@ -1,7 +1,8 @@
 // Marking rules shared by the grader, quizzes, slip patterns and the screens that
 // show marks (domain.md §5.2): the no-torsion band and the cap of critical slips.
 
-import type { SlipCode } from './slips'
+import type { Slip, SlipCode } from './slips'
+import type { Eye } from './types'
 
 /**
  * Below this many degrees an eye has no torsion worth a direction: "no torsion", or
@@ -70,6 +71,31 @@ export function cappedPoints(marks: readonly PointMark[], slips: readonly { code
 
 /** The opening words of feedback on a record with a critical slip. */
 export const MISLEADING_LEAD = 'This record would mislead the next clinician'
+
+const eyeName = (e: Eye): string => (e === 'RE' ? 'right eye' : 'left eye')
+
+/** What one critical slip does to the next clinician, in plain words ('' for other slips). */
+export function misleadingWords(s: Pick<Slip, 'code' | 'eye'>): string {
+  const eye = s.eye ? eyeName(s.eye) : 'eye'
+  switch (s.code) {
+    case 'eye-wrong':
+      return s.eye ? `the ${eye}'s torsion is written against the ${eyeName(s.eye === 'RE' ? 'LE' : 'RE')}` : 'the torsion is written against the wrong eye'
+    case 'direction-reversed':
+      return `the ${eye}'s torsion is given in the opposite direction`
+    case 'dial-value-as-amount':
+      return `the ${eye}'s amount is the figure on the dial, not the change from 90°`
+    case 'should-not-test':
+      return 'it records a measurement on a patient who cannot see both lines and should not have been tested'
+    default:
+      return ''
+  }
+}
+
+/** "This record would mislead the next clinician: …", or null when no slip is critical. */
+export function misleadingLine(slips: readonly Pick<Slip, 'code' | 'eye'>[]): string | null {
+  const words = [...new Set(slips.filter(s => isCriticalSlip(s.code)).map(misleadingWords))]
+  return words.length ? `${MISLEADING_LEAD}: ${words.join('; ')}.` : null
+}
 
 /** One line for the marks table: why the total stops at half. */
 export function capNote(cap: MarkCap): string {

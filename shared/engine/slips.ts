@@ -91,6 +91,17 @@ export const SLIP_INFO: Record<SlipCode, SlipInfo> = {
   },
 }
 
+/** Explanations whose example belongs to one eye, told with that eye's own example. */
+const LEFT_EYE_EXPLANATION: Partial<Record<SlipCode, string>> = {
+  'dial-value-as-amount':
+    'The amount is how far the rod was turned from 90°, not the figure on the dial. A left-eye reading of 80° is 10° of excyclotorsion, not 80°.',
+}
+
+/** The plain-words explanation of a slip, with an example for the eye it concerns. */
+export function slipExplanation(code: SlipCode, eye?: Eye): string {
+  return (eye === 'LE' ? LEFT_EYE_EXPLANATION[code] : undefined) ?? SLIP_INFO[code].explanation
+}
+
 export const slipTitle = (code: SlipCode): string => SLIP_INFO[code].title
 export const isSlipCode = (v: unknown): v is SlipCode => typeof v === 'string' && (SLIP_CODES as readonly string[]).includes(v)
 

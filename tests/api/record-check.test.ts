@@ -87,7 +87,8 @@ const SLIPS: Example[] = [
   { why: 'position of gaze missing', ...RE8, record: 'DMR N: RE 8 ex', slips: ['gaze-missing'], marks: { gaze: 0 } },
   { why: 'wrong position of gaze', ...RE8, record: 'DMR near downgaze: RE 8 ex', slips: [], marks: { gaze: 0 } },
   { why: 'wrong fixation distance', ...RE8, record: 'DMR 6m PP: RE 8 ex', slips: [], marks: { distance: 0 } },
-  { why: 'no eye named', ...RE8, record: 'DMR N PP: 8° excyclo', slips: ['amount-missing', 'eye-missing'], marks: { eye: 0 } },
+  // each slip once (domain.md §5.2): an amount with no eye is eye-missing only, and the finding itself is marked
+  { why: 'no eye named', ...RE8, record: 'DMR N PP: 8° excyclo', slips: ['eye-missing'], marks: { eye: 0, amount: 1, direction: 1 } },
   { why: '"both eyes" with one amount: each or total?', torsion: { RE: 5, LE: 5 }, record: 'DMR N PP: both eyes 5° excyclotorsion', slips: ['amount-missing', 'eye-missing'] },
   { why: 'total only', torsion: { RE: 5, LE: 5 }, record: 'DMR N PP: total 10° excyclo', slips: ['eye-missing'], marks: { amount: 1, direction: 1, eye: 0 } },
   { why: 'no amount', ...RE8, record: 'DMR N PP: RE excyclo', slips: ['amount-missing:RE'] },
@@ -99,6 +100,16 @@ const SLIPS: Example[] = [
   { why: 'dial not where the line looks level', torsion: { RE: 10, LE: 0 }, readings: { RE: 106, LE: 90 }, record: 'DMR N PP: RE 10 ex, LE nil', slips: ['not-parallel:RE'], marks: { measurement: 0, amount: 1 } },
   { why: 'error carried forward: own wrong reading converted correctly (§5.2)', torsion: { RE: 10, LE: 0 }, readings: { RE: 106, LE: 90 }, record: 'DMR N PP: RE 16 ex, LE nil', slips: ['not-parallel:RE'], marks: { measurement: 0, amount: 1, direction: 1 } },
   { why: 'tested a patient who cannot see both streaks', torsion: { RE: 0, LE: 0 }, notTestable: true, record: 'DMR N PP: RE 2 ex', slips: ['should-not-test'], marks: { action: 0 } },
+]
+
+// Critical slips (domain.md §5.2): each caps the record at half its points and leads the feedback.
+// Signed findings: the tolerance is for the amount only (common practice).
+const CRITICAL: Example[] = [
+  { why: 'the finding written against the other eye', ...RE8, record: 'RE no torsion, LE 8 excyclo', slips: ['eye-wrong:RE', 'test-unnamed', 'gaze-missing'], marks: { eye: 0 } },
+  { why: 'a reversed direction inside a wide tolerance', torsion: { RE: 5, LE: 0 }, tolerance: 5, record: 'DMR N PP: RE 5 incyclo', slips: ['direction-reversed:RE'], marks: { direction: 0 } },
+  { why: 'the dial figure written as the amount', ...RE8, record: 'DMR N PP: RE 98 excyclo', slips: ['dial-value-as-amount:RE'], marks: { amount: 0 } },
+  { why: 'the other eye and the image, inside a wide tolerance', torsion: { RE: 5, LE: 0 }, tolerance: 5, record: 'DMR N PP: LE 5° incyclo', slips: ['eye-wrong:RE', 'direction-reversed:RE'] },
+  { why: 'the left dial read with the right eye\'s rule, written against the right eye', torsion: { RE: 0, LE: 8 }, readings: { RE: 90, LE: 82 }, record: 'DMR N PP: RE 8 incyclo, LE nil', slips: ['eye-wrong:LE', 'direction-reversed:LE'] },
 ]
 
 const asCodes = (slips: { code: string, eye?: string }[]) => slips.map(s => (s.eye ? `${s.code}:${s.eye}` : s.code)).sort()
@@ -133,6 +144,22 @@ describe('record checker: each recording slip is named', () => {
     expect(body.score).toBeLessThan(1)
     // every slip is explained in plain words
     for (const s of body.slips as { code: SlipCode }[]) expect(body.explanation.join('\n')).toContain(`${SLIP_INFO[s.code].title}: `)
+  })
+})
+
+describe('record checker: critical slips cap the record at half and say so first', () => {
+  it.each(CRITICAL.map(e => [e.why, e] as const))('%s', async (_why, ex) => {
+    const body = await check(ex)
+    expect(body.score).toBeLessThanOrEqual(0.5)
+    expect(body.points.earned).toBeLessThanOrEqual(body.points.possible / 2)
+    expect(body.cap?.limit).toBe(0.5)
+    expect(body.explanation[0]).toMatch(/^This record would mislead the next clinician: /)
+  })
+
+  it('a record without a critical slip carries no cap', async () => {
+    const body = await check({ why: '', ...RE8, record: 'DMR N PP: RE 5 ex', slips: ['amount-off:RE'] })
+    expect(body.cap).toBeNull()
+    expect(body.explanation[0]).not.toMatch(/mislead/)
   })
 })
 

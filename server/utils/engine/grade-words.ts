@@ -4,9 +4,7 @@
 import { formatEyeRecord } from '#shared/engine/parser'
 import type { EyeRecord } from '#shared/engine/parser'
 import { hasDirection } from '#shared/engine/marking'
-import type { Slip } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
-import { otherEye } from '#shared/engine/types'
 
 export const eyeWords = (e: Eye): string => (e === 'RE' ? 'right eye' : 'left eye')
 export const degWords = (v: number): string => `${Math.round(Math.abs(v) * 10) / 10}°`
@@ -25,20 +23,3 @@ export function wroteWords(label: string, r: EyeRecord | undefined): string {
 
 /** "the right eye has 8° excyclotorsion" */
 export const hasWords = (e: Eye, t: number): string => `the ${eyeWords(e)} has ${findingWords(t)}`
-
-/** What each critical slip does to the next clinician, in plain words. */
-export function misleadingWords(s: Slip): string {
-  const eye = s.eye ? eyeWords(s.eye) : 'eye'
-  switch (s.code) {
-    case 'eye-wrong':
-      return s.eye ? `the ${eye}'s torsion is written against the ${eyeWords(otherEye(s.eye))}` : 'the torsion is written against the wrong eye'
-    case 'direction-reversed':
-      return `the ${eye}'s torsion is given in the opposite direction`
-    case 'dial-value-as-amount':
-      return `the ${eye}'s amount is the figure on the dial, not the change from 90°`
-    case 'should-not-test':
-      return 'it records a measurement on a patient who cannot see both lines and should not have been tested'
-    default:
-      return ''
-  }
-}

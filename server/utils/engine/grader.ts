@@ -7,16 +7,16 @@
 import { readingToTorsion, torsionToReading, wrapAxisDifference } from '#shared/engine/dial'
 import { parseRecord, readAsLine, GAZE_LABEL } from '#shared/engine/parser'
 import type { EyeRecord, GazeSection, ParsedRecord } from '#shared/engine/parser'
-import { MISLEADING_LEAD, cappedPoints, hasDirection, isCriticalSlip } from '#shared/engine/marking'
+import { cappedPoints, hasDirection, misleadingLine } from '#shared/engine/marking'
 import type { MarkCap } from '#shared/engine/marking'
-import { SLIP_INFO } from '#shared/engine/slips'
+import { SLIP_INFO, slipExplanation } from '#shared/engine/slips'
 import type { Slip, SlipCode } from '#shared/engine/slips'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 import { EYES, otherEye } from '#shared/engine/types'
 import { NOT_PERFORMED_RECORD, modelRecord } from './modelRecord'
 import { eyesSwapped, judgeEye, likeliestEye } from './grade-eyes'
 import type { EyeVerdict } from './grade-eyes'
-import { degWords, eyeWords, findingWords, misleadingWords, wroteWords } from './grade-words'
+import { degWords, eyeWords, findingWords, wroteWords } from './grade-words'
 
 export const GRADE_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason'] as const
 export type GradeCriterion = (typeof GRADE_CRITERIA)[number]
@@ -132,15 +132,13 @@ function uniqueSlips(slips: Slip[]): Slip[] {
 function finish(parsed: ParsedRecord, marks: GradeMark[], rawSlips: Slip[], model: string, explanation: string[]): GradeResult {
   const slips = uniqueSlips(rawSlips)
   const { earned, possible, cap } = cappedPoints(marks, slips)
-  const critical = slips.filter(s => isCriticalSlip(s.code))
-  const lead: string[] = critical.length
-    ? [`${MISLEADING_LEAD}: ${[...new Set(critical.map(misleadingWords))].join('; ')}. A record with a critical slip scores at most half the points.`]
-    : []
+  const misleading = misleadingLine(slips)
+  const lead: string[] = misleading ? [`${misleading} A record with a critical slip scores at most half the points.`] : []
   const seen = new Set<SlipCode>()
   for (const s of slips) {
     if (seen.has(s.code)) continue
     seen.add(s.code)
-    explanation.push(`${SLIP_INFO[s.code].title}: ${SLIP_INFO[s.code].explanation}`)
+    explanation.push(`${SLIP_INFO[s.code].title}: ${slipExplanation(s.code, s.eye)}`)
   }
   for (const p of parsed.problems) explanation.push(`Could not read: ${p.message}`)
   return {
