@@ -33,6 +33,8 @@ export interface QuizSettings {
 export interface StaffQuizSummary extends QuizSettings {
   ownerName: string | null
   mine: boolean
+  /** May change quiz-wide settings (times, items, publishing, release): the owner, lecturers and admins. */
+  canManage: boolean
   cohorts: { id: number, name: string }[]
   itemCount: number
   students: number
