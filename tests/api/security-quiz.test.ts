@@ -223,7 +223,12 @@ describe('point 4: quiz secrecy during a sitting', () => {
     const walk = (v: unknown) => {
       if (typeof v === 'number') numbers.push(v)
       else if (Array.isArray(v)) v.forEach(walk)
-      else if (v && typeof v === 'object') for (const [k, x] of Object.entries(v)) keys.push(k), walk(x)
+      else if (v && typeof v === 'object') {
+        for (const [k, x] of Object.entries(v)) {
+          keys.push(k)
+          walk(x)
+        }
+      }
     }
     walk(page.body)
     expect(page.body.presentation).toBeNull()
