@@ -114,7 +114,8 @@ export function practiceCaseView(row: CaseRow, patient: Case, revealed: boolean)
   const t = row.template_id ? getCaseTemplate(row.template_id) : undefined
   return {
     id: row.id,
-    seed: row.seed,
+    // a hidden case's seed would name the template when replayed with each named one
+    seed: named ? row.seed : null,
     template: named && row.template_id ? baseTemplateId(row.template_id) : null,
     title: named ? (t ? baseTemplateTitle(t) : patient.label) : null,
     difficulty: (row.difficulty === 'challenging' ? 'challenging' : 'standard') as Difficulty,

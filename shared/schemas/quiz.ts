@@ -168,6 +168,10 @@ export const quizItemParams = z.object({
   itemId: z.coerce.number({ error: 'The item id must be a number.' }).int().positive({ error: 'The item id must be a positive whole number.' }),
 })
 
+export const quizItemPictureParams = quizItemParams.extend({
+  eye: z.enum(['RE', 'LE'], { error: 'The eye must be RE or LE.' }),
+})
+
 export const quizStudentCaseParams = quizItemParams.extend({
   studentId: z.coerce.number({ error: 'The student id must be a number.' }).int().positive({ error: 'The student id must be a positive whole number.' }),
 })

@@ -20,7 +20,8 @@ export interface PracticeTemplateItem {
 
 export interface PracticeCase {
   id: number
-  seed: string
+  /** Null while the template is hidden. */
+  seed: string | null
   /** Base template id; null while the server's choice ("any") is still hidden. */
   template: string | null
   title: string | null

@@ -34,6 +34,8 @@ export interface QuizSettings {
 export interface StaffQuizSummary extends QuizSettings {
   ownerName: string | null
   mine: boolean
+  /** May change quiz-wide settings (times, items, publishing, release): the owner, lecturers and admins. */
+  canManage: boolean
   cohorts: { id: number, name: string }[]
   itemCount: number
   students: number
@@ -147,10 +149,14 @@ export interface StudentItemCase {
   serverNow: string
 }
 
+/** A picture as an image to mark: its route and its size in the units the marks are in. */
+export interface FundusItemImage { imageUrl: string, width: number, height: number, eye: Eye }
+
 /**
  * What the fundus marker needs to sit a fundus item: the pictures of the eyes to
- * measure (a case's drawn fundus, or a photograph's image route and size) — never
- * the reference marks, the angle or the finding.
+ * measure (a case's fundus rendered to pixels on the server, or a photograph's
+ * image route and size) — never the reference marks, the disc and fovea
+ * coordinates, the angle or the finding.
  */
 export interface StudentFundusItem {
   kind: 'fundus'
@@ -159,10 +165,12 @@ export interface StudentFundusItem {
   position: number
   prompt: string
   eyes: Eye[]
-  /** A generated case's fundus (picture geometry only). */
+  /** Always null for a student: a generated case's geometry stays on the server during a sitting. */
   presentation: FundusPresentation | null
+  /** A generated case's fundus per eye, as PNGs rendered on the server (GET …/items/:itemId/pictures/:eye), sized in disc diameters. */
+  pictures: Partial<Record<Eye, FundusItemImage>> | null
   /** A photograph: served by /api/fundus/photos/:id/image to the quiz's students. */
-  photo: { imageUrl: string, width: number, height: number, eye: Eye } | null
+  photo: FundusItemImage | null
   draft: (FundusItemDraft & { savedAt: string }) | null
   attempts: { attemptId: number, submittedAt: string }[]
   attemptsLeft: number
@@ -279,8 +287,11 @@ export interface QuizFundusAttemptView {
   student: { id: number, name: string, email?: string }
   counts: boolean
   attempt: { id: number, marks: Partial<Record<Eye, FundusEyeMarks>>, submittedAt: string }
+  /** Staff, and the student once feedback is open: the generated picture's geometry. */
   presentation: FundusPresentation | null
-  photo: { imageUrl: string, width: number, height: number, eye: Eye } | null
+  /** The student before feedback opens: the generated picture as server-rendered pixels. */
+  pictures: Partial<Record<Eye, FundusItemImage>> | null
+  photo: FundusItemImage | null
   feedbackOpen: boolean
   /** The picture's own disc centre and fovea per eye (with the feedback). */
   reference: Partial<Record<Eye, { disc: Point, fovea: Point }>> | null

@@ -120,9 +120,12 @@ describe('fundus items in quizzes', () => {
     expect(image.status).toBe(200)
     expect(image.headers.get('content-type')).toBe('image/png')
     const caseView = await student.get(casePath)
-    expect(caseView.body).toMatchObject({ kind: 'fundus', eyes: ['RE', 'LE'], photo: null })
+    // a generated picture reaches the student as server-rendered pixels, not as its geometry
+    expect(caseView.body).toMatchObject({ kind: 'fundus', eyes: ['RE', 'LE'], photo: null, presentation: null, pictures: { RE: { eye: 'RE', width: 8, height: 6 }, LE: { eye: 'LE' } } })
     replies.push(['case item', caseView.body])
-    const pictures = caseView.body.presentation.eyes
+    expect((await student.bytes(caseView.body.pictures.RE.imageUrl)).headers.get('content-type')).toBe('image/png')
+    // the disc and fovea to mark come from the tutor's view of the same picture
+    const pictures = (await tutor.get(`/api/quizzes/${quiz.id}/items/${caseItem.id}/cases/${me}`)).body.presentation.eyes
 
     // autosave survives a reload; a bad draft is refused naming the field
     const partial = { eyes: { RE: { disc: { x: 428, y: 222 }, fovea: null, finding: null } } }
@@ -140,7 +143,7 @@ describe('fundus items in quizzes', () => {
 
     // the tutor sees the same picture with its reference angles; the stored seed is the student's
     const tutorCase = (await tutor.get(`/api/quizzes/${quiz.id}/items/${caseItem.id}/cases/${me}`)).body
-    expect(tutorCase).toMatchObject({ kind: 'fundus', stored: true, presentation: caseView.body.presentation })
+    expect(tutorCase).toMatchObject({ kind: 'fundus', stored: true, presentation: { eyes: pictures } })
     expect(tutorCase.draft.eyes.RE.disc).toMatchObject({ x: pictures.RE.disc.x })
     const angles = tutorCase.angles as { RE: number, LE: number }
 

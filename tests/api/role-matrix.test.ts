@@ -4,7 +4,8 @@ import { describe, expect, inject, it } from 'vitest'
 import { ROLES } from '#shared/auth/roles'
 import type { Role } from '#shared/auth/roles'
 import { Client, DEMO, signedIn } from '../support/client'
-import { ROUTE_ACCESS } from './route-access'
+import { minutesFromNow, publishQuiz } from '../support/quiz'
+import { CROSS_COHORT, ROUTE_ACCESS } from './route-access'
 
 const baseURL = inject('baseURL')
 
@@ -66,5 +67,65 @@ describe('role matrix over every API route', () => {
       }
     }
     expect(failures).toEqual([])
+  })
+
+  it('keeps a tutor to their own cohorts on a quiz shared across cohorts (issue 12, point 7)', async () => {
+    const admin = await signedIn(baseURL, DEMO.admin)
+    const lecturer = await signedIn(baseURL, DEMO.lecturer)
+    const owner = await signedIn(baseURL, DEMO.tutor) // teaches Kestrel, owns the quiz
+    const other = await signedIn(baseURL, DEMO.tutor2) // teaches Heron only
+    const cohorts = Object.fromEntries(((await admin.get('/api/admin/cohorts')).body.items as { id: number, name: string }[]).map(c => [c.name, c.id]))
+    const quiz = await publishQuiz(owner, { title: 'Matrix: shared quiz', opensAt: minutesFromNow(-5), closesAt: minutesFromNow(60), cohortIds: [cohorts['Kestrel cohort']] }, [
+      { kind: 'dmr', source: { type: 'engine', templateId: 'so-palsy-right-standard' }, mode: 'learner-turns' },
+      { kind: 'fundus', source: { type: 'engine', templateId: 'so-palsy-right-standard' } },
+    ])
+    expect((await lecturer.patch(`/api/quizzes/${quiz.id}`, { cohortIds: [cohorts['Kestrel cohort'], cohorts['Heron cohort']] })).status).toBe(200)
+    const [dmr, fundus] = quiz.items
+    const email = 'wen.hallowby@cyclodial.test' // Kestrel
+    const student = await signedIn(baseURL, email)
+    const studentId = (await student.get('/api/auth/me')).body.user.id
+    expect((await student.post(`/api/quizzes/${quiz.id}/start`)).status).toBe(200)
+    const dmrAttempt = (await student.post(`/api/quizzes/${quiz.id}/items/${dmr!.id}/attempts`, { gaze: 'primary', distance: 'near', readings: { RE: 90, LE: 90 }, record: 'DMR, near, primary position: no torsion.' })).body.attemptId
+    const eyes = (await owner.get(`/api/quizzes/${quiz.id}/items/${fundus!.id}/cases/${studentId}`)).body.presentation.eyes
+    const marks = Object.fromEntries((['RE', 'LE'] as const).map(e => [e, { disc: eyes[e].disc, fovea: eyes[e].fovea, finding: 'within-normal' }]))
+    const fundusAttempt = (await student.post(`/api/quizzes/${quiz.id}/items/${fundus!.id}/attempts`, { eyes: marks })).body.attemptId
+    expect(dmrAttempt).toBeGreaterThan(0)
+    expect(fundusAttempt).toBeGreaterThan(0)
+
+    const staffQuizRoutes = Object.entries(ROUTE_ACCESS)
+      .filter(([route, access]) => /^\w+ \/api\/quizzes\/\[id\]/.test(route) && (access === 'signed-in' || (access !== 'public' && access.includes('tutor'))))
+      .map(([route]) => route)
+    expect(staffQuizRoutes.filter(r => !(r in CROSS_COHORT)), 'add these routes to CROSS_COHORT in tests/api/route-access.ts').toEqual([])
+
+    const bodies: Record<string, unknown> = {
+      'PATCH /api/quizzes/[id]': { closesAt: minutesFromNow(600) },
+      'POST /api/quizzes/[id]/items': { kind: 'dmr', source: { type: 'engine', templateId: 'normal-standard' } },
+      'PATCH /api/quizzes/[id]/items/[itemId]': { prompt: 'Changed by another cohort\'s tutor' },
+      'POST /api/quizzes/[id]/attempts/[attemptId]/overrides': { criterion: 'amount', score: 1, reason: 'Across cohorts' },
+      'POST /api/quizzes/[id]/fundus-attempts/[attemptId]/overrides': { criterion: 'fundusAngle', score: 0, reason: 'Across cohorts' },
+    }
+    const failures: string[] = []
+    for (const [route, want] of Object.entries(CROSS_COHORT)) {
+      const [method, pattern] = route.split(' ') as [string, string]
+      const url = pattern.replace('[id]', String(quiz.id))
+        .replace('[itemId]', String(/fundus/.test(route) ? fundus!.id : dmr!.id))
+        .replace('[studentId]', String(studentId))
+        .replace('[attemptId]', String(/fundus-attempts/.test(route) ? fundusAttempt : dmrAttempt))
+      const reply = await other.request(method, url, bodies[route] ?? (method === 'GET' || method === 'DELETE' ? undefined : {}))
+      if (typeof want === 'number') {
+        if (reply.status !== want) failures.push(`${route} → ${reply.status} (want ${want})`)
+        if (want === 403 && !/owner/.test(reply.body?.message ?? '')) failures.push(`${route} → 403 without a message naming the owner`)
+      }
+      else if (reply.status >= 400) failures.push(`${route} → ${reply.status} (want access)`)
+      else if (want === 'own-only' && JSON.stringify(reply.body).includes(email)) failures.push(`${route} lists another cohort's student`)
+    }
+    expect(failures).toEqual([])
+    // nothing changed: the owner's settings, items and marks stand
+    const after = (await owner.get(`/api/quizzes/${quiz.id}`)).body
+    expect(Date.parse(after.closesAt)).toBe(Date.parse(quiz.closesAt))
+    expect(after.items).toHaveLength(2)
+    expect(after.releasedAt).toBeNull()
+    expect((await owner.get(`/api/quizzes/${quiz.id}/attempts/${dmrAttempt}`)).body.overrides).toEqual([])
+    expect((await owner.patch(`/api/quizzes/${quiz.id}`, { archived: true })).status).toBe(200)
   })
 })

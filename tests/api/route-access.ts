@@ -56,6 +56,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'PUT /api/quizzes/[id]/items/[itemId]/draft': ['student'],
   'POST /api/quizzes/[id]/items/[itemId]/turns': ['student'],
   'POST /api/quizzes/[id]/items/[itemId]/attempts': ['student'],
+  'GET /api/quizzes/[id]/items/[itemId]/pictures/[eye]': ['student'],
   'GET /api/quizzes/[id]/results': ['tutor', 'lecturer', 'admin'],
   'GET /api/quizzes/[id]/results.csv': ['tutor', 'lecturer', 'admin'],
   'GET /api/quizzes/[id]/attempts/[attemptId]': 'signed-in',
@@ -87,4 +88,29 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/fundus/photos/[id]/image': 'signed-in',
   'PUT /api/fundus/photos/[id]/reference': ['tutor', 'lecturer', 'admin'],
   'POST /api/fundus/photos/[id]/attempts': 'signed-in',
+}
+
+/**
+ * Issue 12, point 7 — a tutor's reach is their cohorts. What a tutor gets on each staff
+ * quiz route of a quiz shared across cohorts that they do not own, acting on a student
+ * of the other cohort: `403` for quiz-wide settings (times, items, publishing, release),
+ * `404` for that student's attempts, overrides and patient, `own-only` where the answer
+ * lists students (only the tutor's own cohorts'), `allowed` otherwise. The role-matrix
+ * test fails on a staff quiz route missing here.
+ */
+export const CROSS_COHORT: Record<string, 403 | 404 | 'own-only' | 'allowed'> = {
+  'GET /api/quizzes/[id]': 'allowed',
+  'PATCH /api/quizzes/[id]': 403,
+  'POST /api/quizzes/[id]/duplicate': 'allowed',
+  'POST /api/quizzes/[id]/items': 403,
+  'PATCH /api/quizzes/[id]/items/[itemId]': 403,
+  'DELETE /api/quizzes/[id]/items/[itemId]': 403,
+  'GET /api/quizzes/[id]/items/[itemId]/cases/[studentId]': 404,
+  'GET /api/quizzes/[id]/results': 'own-only',
+  'GET /api/quizzes/[id]/results.csv': 'own-only',
+  'GET /api/quizzes/[id]/attempts/[attemptId]': 404,
+  'POST /api/quizzes/[id]/attempts/[attemptId]/overrides': 404,
+  'POST /api/quizzes/[id]/release': 403,
+  'GET /api/quizzes/[id]/fundus-attempts/[attemptId]': 404,
+  'POST /api/quizzes/[id]/fundus-attempts/[attemptId]/overrides': 404,
 }

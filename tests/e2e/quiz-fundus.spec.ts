@@ -37,14 +37,35 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   const student = await browser.newPage({ viewport: { width: 1280, height: 720 } })
   await signIn(student, 'adaeze.quillon@cyclodial.test')
   await student.goto(`/student/quizzes/${created.id}`)
+  // the picture arrives as pixels rendered on the server
+  const rendered = student.waitForResponse(r => /\/pictures\/RE$/.test(new URL(r.url()).pathname))
   await student.getByRole('button', { name: 'Start the quiz' }).click()
   await expect(student).toHaveURL(/\/items\/\d+$/)
   const itemUrl = student.url()
   const apiPath = new URL(itemUrl).pathname.replace('/student/quizzes/', '/api/quizzes/')
   const item = await (await student.request.get(apiPath)).json() as StudentFundusItem
   expect(item.kind).toBe('fundus')
-  const pics = item.presentation!.eyes
+  // the student's page holds no disc or fovea coordinates: the tutor's view of the same picture says where they are
+  expect(item.presentation).toBeNull()
+  expect(JSON.stringify(item)).not.toMatch(/"(disc|fovea|lookKey)"/)
+  const me = (await (await student.request.get('/api/auth/me')).json()).user.id
+  const pics = (await (await tutor.request.get(`/api/quizzes/${created.id}/items/${item.itemId}/cases/${me}`)).json()).presentation.eyes
   await expect(student.getByTestId('quiz-fundus')).toBeVisible()
+  const picture = await rendered
+  expect(picture.status()).toBe(200)
+  expect(picture.headers()['content-type']).toBe('image/png')
+  // …and the marker paints them: the optic disc shows bright where the picture has it
+  const discBrightness = () => student.getByTestId('fundus-canvas').evaluate((el, p) => {
+    const canvas = el as HTMLCanvasElement
+    const perUnit = canvas.width / p.width
+    // the brightest pixel within 0.3 disc diameters of the disc centre (vessels cross the centre itself)
+    const r = Math.round(0.3 * perUnit)
+    const d = canvas.getContext('2d')!.getImageData(Math.round(p.x * perUnit) - r, Math.round(p.y * perUnit) - r, 2 * r, 2 * r).data
+    let best = 0
+    for (let i = 0; i < d.length; i += 4) best = Math.max(best, d[i]! + d[i + 1]! + d[i + 2]!)
+    return best
+  }, { x: pics.RE.disc.x, y: pics.RE.disc.y, width: pics.RE.frame.width })
+  await expect.poll(discBrightness).toBeGreaterThan(550)
 
   // right eye by pointer: disc centre, then the fovea
   const re = pics.RE

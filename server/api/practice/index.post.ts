@@ -37,11 +37,14 @@ export default defineEventHandler(async (event): Promise<PracticeCase> => {
   }
   if (!templateId) badRequest([{ path: 'difficulty', message: 'That case template has no such difficulty.' }])
 
+  // a hidden case's seed is keyed with the server's secret: a seed the learner sent
+  // (or saw) cannot be replayed with a named template to find the hidden one
+  const seed = hidden ? hiddenCaseSeed(`${user.id}|${body.seed ?? newCaseSeed()}`) : body.seed ?? newCaseSeed()
   const { row, patient } = await withCaseErrors(() => insertCase(db, {
     ownerId: user.id,
     purpose: 'practice',
     templateId: templateId!,
-    seed: body.seed ?? newCaseSeed(),
+    seed,
     templateHidden: hidden,
     mode,
     readScale,

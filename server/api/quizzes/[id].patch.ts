@@ -2,7 +2,7 @@ import { idParam } from '#shared/schemas/admin'
 import { quizPatchBody } from '#shared/schemas/quiz'
 import type { Updateable } from 'kysely'
 import type { QuizzesTable } from '~~/db/schema'
-import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/utils/quiz/access'
+import { assertManagesQuiz, assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { quizLocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
 import { sittingDeadline } from '~~/server/utils/quiz/timing'
@@ -13,6 +13,7 @@ export default defineEventHandler(async (event) => {
   const body = await readBodyAs(event, quizPatchBody)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
+  assertManagesQuiz(user, quiz)
   const locked = await quizLocked(db, id)
 
   const next = {
@@ -21,6 +22,16 @@ export default defineEventHandler(async (event) => {
   }
   if (next.opensAt && next.closesAt && Date.parse(next.closesAt) <= Date.parse(next.opensAt)) {
     badRequest([{ path: 'closesAt', message: 'The quiz must close after it opens.' }])
+  }
+  // released means final: the close time may come forward, never move later (or go)
+  if (quiz.released_at && body.closesAt !== undefined && quiz.closes_at !== body.closesAt
+    && (body.closesAt === null || !quiz.closes_at || Date.parse(body.closesAt) > Date.parse(quiz.closes_at))) {
+    throw createError({
+      statusCode: 409,
+      statusMessage: 'Conflict',
+      message: 'The results of this quiz have been released, so its close time can no longer be moved later. Duplicate the quiz to set it again.',
+      data: { code: 'quiz-released', fields: [{ path: 'closesAt', message: 'Fixed once the results are released; it may only come forward.' }] },
+    })
   }
   if (locked && body.interpretation !== undefined && body.interpretation !== (quiz.interpretation === 1)) {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'Students have started this quiz, so the interpretation step can no longer be switched. Duplicate it instead.', data: { code: 'quiz-locked', fields: [{ path: 'interpretation', message: 'Fixed once students have started.' }] } })

@@ -8,6 +8,7 @@ import type { SessionUserData } from '#shared/auth/roles'
 import type { Kysely } from 'kysely'
 import { sql } from 'kysely'
 import type { Database, FundusPhotoRow } from '~~/db/schema'
+import { feedbackReleased } from '../quiz/timing'
 
 export const seesEveryFundusPhoto = (user: SessionUserData): boolean => user.role === 'lecturer' || user.role === 'admin'
 
@@ -16,13 +17,34 @@ export const managesFundusPhoto = (user: SessionUserData, photo: Pick<FundusPhot
   seesEveryFundusPhoto(user) || (user.role === 'tutor' && photo.owner_id === user.id)
 
 /**
+ * Photographs a student may not open, list or measure in the library just now: those
+ * of a fundus item in a published, unarchived quiz assigned to their cohort whose
+ * feedback is not open yet. Measuring one would return its reference angle — the
+ * item's answer — during the sitting. They come back when the quiz's feedback opens.
+ */
+export async function photosHeldForQuiz(db: Kysely<Database>, user: SessionUserData, now: Date = new Date()): Promise<Set<number>> {
+  if (user.role !== 'student') return new Set()
+  const rows = await db.selectFrom('quiz_items as qi')
+    .innerJoin('quizzes as q', 'q.id', 'qi.quiz_id')
+    .select([sql<number>`json_extract(qi.config_json, '$.source.id')`.as('photoId'), 'q.released_at', 'q.hold_feedback', 'q.closes_at'])
+    .where('qi.kind', '=', 'fundus')
+    .where(sql<string>`json_extract(qi.config_json, '$.source.type')`, '=', 'photo')
+    .where('q.published_at', 'is not', null).where('q.archived_at', 'is', null)
+    .where('q.id', 'in', eb => eb.selectFrom('quiz_cohorts as qc').innerJoin('cohort_members as m', 'm.cohort_id', 'qc.cohort_id').select('qc.quiz_id').where('m.user_id', '=', user.id))
+    .execute()
+  return new Set(rows.filter(r => !feedbackReleased(r, now)).map(r => Number(r.photoId)))
+}
+
+/**
  * The photograph if this person may see it in the fundus library (staff rules, or a
- * cohort it is shared with), else undefined. Takes the db so quiz code can call it.
+ * cohort it is shared with, and for a student not held for a quiz), else undefined.
+ * Takes the db so quiz code can call it.
  */
 export async function photoVisibleTo(db: Kysely<Database>, user: SessionUserData, id: number): Promise<FundusPhotoRow | undefined> {
   const photo = await db.selectFrom('fundus_photos').selectAll().where('id', '=', id).executeTakeFirst()
   if (!photo) return undefined
   if (seesEveryFundusPhoto(user) || photo.owner_id === user.id) return photo
+  if ((await photosHeldForQuiz(db, user)).has(id)) return undefined
   const shared = await db.selectFrom('fundus_photo_cohorts as pc')
     .innerJoin('cohort_members as m', 'm.cohort_id', 'pc.cohort_id')
     .select('pc.photo_id')

@@ -78,15 +78,53 @@ export async function assignableCohortIds(db: Kysely<Database>, user: SessionUse
   return rows.map(r => r.id)
 }
 
-/** Students of the cohorts a quiz is assigned to. */
-export async function quizStudents(db: Kysely<Database>, quizId: number) {
-  return db.selectFrom('users')
+/**
+ * Quiz-wide settings (times, items, publishing, archiving, release) belong to the
+ * quiz's owner, lecturers and administrators. A tutor who reaches the quiz only
+ * through a cohort they teach gets 403 with a message.
+ */
+export function managesQuiz(user: SessionUserData, quiz: Pick<QuizRow, 'owner_id'>): boolean {
+  return user.role === 'lecturer' || user.role === 'admin' || quiz.owner_id === user.id
+}
+
+export function assertManagesQuiz(user: SessionUserData, quiz: Pick<QuizRow, 'owner_id'>): void {
+  if (managesQuiz(user, quiz)) return
+  throw createError({
+    statusCode: 403,
+    statusMessage: 'Forbidden',
+    message: 'Only the quiz’s owner, a lecturer or an administrator can change its settings, items, publishing or release. You can see and mark the students of your own cohorts.',
+    data: { code: 'not-quiz-owner' },
+  })
+}
+
+/** Which cohorts' students a member of staff reaches on a quiz: lecturers and admins all; a tutor the assigned cohorts they teach (owner or not). */
+export async function quizReach(db: Kysely<Database>, user: SessionUserData, quizId: number): Promise<number[] | 'all'> {
+  if (user.role === 'lecturer' || user.role === 'admin') return 'all'
+  const [mine, assigned] = await Promise.all([cohortIdsOfUser(db, user.id), quizCohortIds(db, quizId)])
+  return assigned.filter(id => mine.includes(id))
+}
+
+/** 404 unless the student is one of the quiz's students within the caller's reach (so other cohorts' students are not given away). */
+export async function assertStudentInReach(db: Kysely<Database>, user: SessionUserData, quizId: number, studentId: number): Promise<void> {
+  if (user.role === 'student') return
+  const reach = await quizReach(db, user, quizId)
+  if (reach === 'all') return
+  const hit = reach.length
+    ? await db.selectFrom('cohort_members').select('user_id').where('user_id', '=', studentId).where('cohort_id', 'in', reach).executeTakeFirst()
+    : undefined
+  if (!hit) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'That attempt was not found.', data: { code: 'not-found' } })
+}
+
+/** Students of the cohorts a quiz is assigned to (only those of `reach`, when given). */
+export async function quizStudents(db: Kysely<Database>, quizId: number, reach: number[] | 'all' = 'all') {
+  if (reach !== 'all' && !reach.length) return []
+  let q = db.selectFrom('users')
     .innerJoin('cohort_members', 'cohort_members.user_id', 'users.id')
     .innerJoin('quiz_cohorts', 'quiz_cohorts.cohort_id', 'cohort_members.cohort_id')
     .innerJoin('cohorts', 'cohorts.id', 'cohort_members.cohort_id')
     .select(['users.id', 'users.name', 'users.email', 'cohorts.id as cohortId', 'cohorts.name as cohortName'])
     .where('quiz_cohorts.quiz_id', '=', quizId)
     .where('users.role', '=', 'student')
-    .orderBy('users.name')
-    .execute()
+  if (reach !== 'all') q = q.where('quiz_cohorts.cohort_id', 'in', reach)
+  return q.orderBy('users.name').execute()
 }

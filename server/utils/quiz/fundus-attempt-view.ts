@@ -8,7 +8,7 @@ import type { QuizFundusAttemptView } from '#shared/types/quiz'
 import type { Database, FundusAttemptRow, QuizRow } from '~~/db/schema'
 import type { FundusItemConfig } from './items'
 import { readItemConfig } from './items'
-import { fundusFeedbackOf, fundusItemPictures, referencePoints } from './fundus-item'
+import { fundusFeedbackOf, fundusItemPictures, referencePoints, studentItemImages } from './fundus-item'
 import { loadFundusOverrides } from './fundus-marks'
 import { feedbackReleased } from './timing'
 
@@ -31,7 +31,9 @@ export async function quizFundusAttemptView(db: Kysely<Database>, viewer: Sessio
     student: { id: student.id, name: student.name, ...(staff ? { email: student.email } : {}) },
     counts: latest.id === attempt.id,
     attempt: { id: attempt.id, marks: JSON.parse(attempt.marks_json) as Partial<Record<'RE' | 'LE', FundusEyeMarks>>, submittedAt: attempt.submitted_at },
-    presentation: pictures.presentation,
+    // a student sees the drawn picture as pixels until feedback opens (then the reference points are out anyway)
+    presentation: open ? pictures.presentation : null,
+    pictures: staff ? null : studentItemImages(quiz.id, item.id, pictures),
     photo: pictures.photo,
     feedbackOpen: open,
     reference: open ? referencePoints(pictures) : null,

@@ -8,7 +8,7 @@ import type { FundusPresentation } from '#shared/engine/fundus/picture'
 import type { Point } from '#shared/engine/fundus/geometry'
 import type { Eye, PerEye } from '#shared/engine/types'
 import type { FundusItemDraft } from '#shared/schemas/quiz'
-import type { StudentFundusFeedback } from '#shared/types/quiz'
+import type { FundusItemImage, StudentFundusFeedback } from '#shared/types/quiz'
 import type { CaseRow, Database, FundusAttemptRow } from '~~/db/schema'
 import { regenerateCase } from '../cases'
 import { compareWithDmr } from '../fundus/compare'
@@ -37,6 +37,22 @@ export interface FundusItemPictures {
 }
 
 export const photoImageUrl = (id: number): string => `/api/fundus/photos/${id}/image`
+
+/** The route that renders one eye of a student's generated fundus item to pixels. */
+export const itemPictureUrl = (quizId: number, itemId: number, eye: Eye): string => `/api/quizzes/${quizId}/items/${itemId}/pictures/${eye}`
+
+/**
+ * What a student's browser gets of a generated item's pictures during a sitting:
+ * image routes and sizes (disc diameters, the units the marks are in), never the
+ * disc and fovea coordinates or the look key. Null for a photograph item.
+ */
+export function studentItemImages(quizId: number, itemId: number, p: FundusItemPictures): Partial<Record<Eye, FundusItemImage>> | null {
+  if (!p.presentation) return null
+  return Object.fromEntries(p.eyes.map((e) => {
+    const { frame } = p.presentation!.eyes[e]
+    return [e, { imageUrl: itemPictureUrl(quizId, itemId, e), width: frame.width, height: frame.height, eye: e }]
+  }))
+}
 
 /** The pictures of an item for one student: `caseRow` is their stored quiz case (null for a photograph). */
 export function fundusItemPictures(config: FundusItemConfig, caseRow: CaseRow | null, version: number = FUNDUS_VERSION): FundusItemPictures {

@@ -15,7 +15,7 @@ import { badRequest } from '../validate'
 import { storeFundusAttempt } from '../fundus/attempts'
 import { learnerCohortId } from '../fundus/caseFundus'
 import type { FundusItemConfig } from './items'
-import { fundusDraftOf, fundusItemPictures, gradeFundusItem } from './fundus-item'
+import { fundusDraftOf, fundusItemPictures, gradeFundusItem, studentItemImages } from './fundus-item'
 import { ensureQuizCase, quizCaseRow } from './sitting'
 
 export async function fundusAttemptsOn(db: Kysely<Database>, quizId: number, itemId: number, studentId: number) {
@@ -35,7 +35,9 @@ export async function studentFundusItem(db: Kysely<Database>, user: SessionUserD
     position: item.position,
     prompt: item.prompt,
     eyes: pictures.eyes,
-    presentation: pictures.presentation,
+    // a generated picture goes as pixels: its disc and fovea coordinates are the answer's raw material
+    presentation: null,
+    pictures: studentItemImages(quiz.id, item.id, pictures),
     photo: pictures.photo,
     draft,
     attempts: attempts.map(a => ({ attemptId: a.id, submittedAt: a.submitted_at })),

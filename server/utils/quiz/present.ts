@@ -5,6 +5,7 @@ import type { SessionUserData } from '#shared/auth/roles'
 import type { QuizSettings, StaffQuizSummary, StudentQuizSummary } from '#shared/types/quiz'
 import type { Database, QuizRow, QuizSittingRow } from '~~/db/schema'
 import { feedbackReleased, quizPhase, sittingStatus } from './timing'
+import { cohortIdsOfUser, managesQuiz } from './access'
 
 export function quizSettings(q: QuizRow, now: Date = new Date()): QuizSettings {
   return {
@@ -29,16 +30,22 @@ export function quizSettings(q: QuizRow, now: Date = new Date()): QuizSettings {
 export async function staffSummaries(db: Kysely<Database>, user: SessionUserData, quizzes: QuizRow[], now: Date = new Date()): Promise<StaffQuizSummary[]> {
   if (!quizzes.length) return []
   const ids = quizzes.map(q => q.id)
+  // a tutor's counts are of their own cohorts' students only
+  const reach = user.role === 'tutor' ? await cohortIdsOfUser(db, user.id) : null
+  const inReach = reach ? (reach.length ? reach : [-1]) : null
   const [cohorts, items, sittings, students, owners] = await Promise.all([
     db.selectFrom('quiz_cohorts').innerJoin('cohorts', 'cohorts.id', 'quiz_cohorts.cohort_id')
       .select(['quiz_cohorts.quiz_id', 'cohorts.id', 'cohorts.name']).where('quiz_cohorts.quiz_id', 'in', ids).orderBy('cohorts.name').execute(),
     db.selectFrom('quiz_items').select(['quiz_id', eb => eb.fn.countAll<number>().as('n')]).where('quiz_id', 'in', ids).groupBy('quiz_id').execute(),
-    db.selectFrom('quiz_sittings').select(['quiz_id', 'finished_at', 'deadline_at']).where('quiz_id', 'in', ids).execute(),
+    db.selectFrom('quiz_sittings').select(['quiz_id', 'finished_at', 'deadline_at']).where('quiz_id', 'in', ids)
+      .$if(!!inReach, q => q.where('student_id', 'in', eb => eb.selectFrom('cohort_members').select('user_id').where('cohort_id', 'in', inReach!)))
+      .execute(),
     db.selectFrom('quiz_cohorts')
       .innerJoin('cohort_members', 'cohort_members.cohort_id', 'quiz_cohorts.cohort_id')
       .innerJoin('users', 'users.id', 'cohort_members.user_id')
       .select(['quiz_cohorts.quiz_id', eb => eb.fn.countAll<number>().as('n')])
       .where('quiz_cohorts.quiz_id', 'in', ids).where('users.role', '=', 'student')
+      .$if(!!inReach, q => q.where('quiz_cohorts.cohort_id', 'in', inReach!))
       .groupBy('quiz_cohorts.quiz_id').execute(),
     db.selectFrom('users').select(['id', 'name']).where('id', 'in', quizzes.map(q => q.owner_id ?? 0)).execute(),
   ])
@@ -46,6 +53,7 @@ export async function staffSummaries(db: Kysely<Database>, user: SessionUserData
     ...quizSettings(q, now),
     ownerName: owners.find(o => o.id === q.owner_id)?.name ?? null,
     mine: q.owner_id === user.id,
+    canManage: managesQuiz(user, q),
     cohorts: cohorts.filter(c => c.quiz_id === q.id).map(c => ({ id: c.id, name: c.name })),
     itemCount: Number(items.find(i => i.quiz_id === q.id)?.n ?? 0),
     students: Number(students.find(s => s.quiz_id === q.id)?.n ?? 0),

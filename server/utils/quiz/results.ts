@@ -102,11 +102,12 @@ export async function loadOverrides(db: Kysely<Database>, quizId: number): Promi
     .execute()
 }
 
-export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: Date = new Date()): Promise<{ columns: ItemColumn[], rows: StudentResult[] }> {
+/** `reach`: the cohorts whose students the caller may see (a tutor's own; see quizReach). */
+export async function computeResults(db: Kysely<Database>, quiz: QuizRow, now: Date = new Date(), reach: number[] | 'all' = 'all'): Promise<{ columns: ItemColumn[], rows: StudentResult[] }> {
   const itemRows: QuizItemRow[] = await db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quiz.id).orderBy('position').execute()
   const interpretationOn = quiz.interpretation === 1
   const [students, sittings, attempts, overrides, drafts, fundusAttempts, fundusOverrides, fundusDrafts] = await Promise.all([
-    quizStudents(db, quiz.id),
+    quizStudents(db, quiz.id, reach),
     db.selectFrom('quiz_sittings').selectAll().where('quiz_id', '=', quiz.id).execute(),
     db.selectFrom('attempts')
       .select(['id', 'learner_id', 'quiz_item_id', 'marks_json', 'interpretation_json', 'slips_json', 'submitted_at'])

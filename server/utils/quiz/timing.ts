@@ -49,6 +49,9 @@ export function assertSittingOpen(q: QuizRow, s: QuizSittingRow | undefined, now
   if (phase === 'upcoming') {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `This quiz opens at ${clock(q.opens_at!)}.`, data: { code: 'quiz-not-open' } })
   }
+  if (q.released_at) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'The results of this quiz have been released: nothing more can be saved or submitted.', data: { code: 'quiz-released' } })
+  }
   if (!s) {
     if (phase === 'closed') {
       throw createError({ statusCode: 409, statusMessage: 'Conflict', message: `This quiz closed at ${clock(q.closes_at!)}.`, data: { code: 'quiz-closed' } })

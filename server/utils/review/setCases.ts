@@ -2,12 +2,14 @@
 // the learner makes. A left-eye rule swap gets cases with clear left-eye
 // torsion, half excyclo and half incyclo; a direction reversal gets an even mix
 // of excyclo and incyclo; and so on. Cases are drawn deterministically from the
-// set and learner, so a set can be rebuilt, and each learner gets their own.
+// set and learner (keyed with the server's secret, see hidden-case.ts), so a set
+// can be rebuilt, and each learner gets their own.
 import type { Eye, Mode } from '#shared/engine/types'
 import { EYES } from '#shared/engine/types'
 import type { PatternCode } from '#shared/review/patterns'
 import { generateCase } from '../engine/generator'
 import { CASE_TEMPLATES } from '../engine/templates'
+import { hiddenCaseSeed } from '../hidden-case'
 import type { Case } from '../engine/types'
 
 /** Torsion this clear of zero cannot be read as "no torsion" within the default 2° tolerance. */
@@ -46,7 +48,8 @@ export function chooseSetCases(setId: number, learnerId: number, focus: PatternC
     // walk the pool so the set mixes conditions, least-used template first
     const template = POOL[(k * 7 + learnerId) % POOL.length]!
     if ((usedTemplates.get(template.id) ?? 0) >= Math.max(1, Math.ceil(size / 4))) continue
-    const seed = `set${setId}-l${learnerId}-${k}`
+    // keyed with the server's secret: the learner knows the set, their id and k
+    const seed = hiddenCaseSeed(`set${setId}-l${learnerId}-${k}`)
     const c = generateCase(template, seed)
     const kind = classify(c, focus, eye)
     if (!kind || want[kind] <= 0) continue

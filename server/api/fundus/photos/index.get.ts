@@ -15,7 +15,12 @@ export default defineEventHandler(async (event): Promise<FundusPhotoList> => {
       eb('id', 'in', eb.selectFrom('fundus_photo_cohorts').select('photo_id').where('cohort_id', 'in', mine.length ? mine : [-1])),
     ]))
   }
-  if (user.role === 'student') q = q.where('reference_angle', 'is not', null)
+  if (user.role === 'student') {
+    q = q.where('reference_angle', 'is not', null)
+    // a photograph in a quiz the student is sitting stays out of the library until its feedback opens
+    const held = [...await photosHeldForQuiz(db, user)]
+    if (held.length) q = q.where('id', 'not in', held)
+  }
   const rows = await q.limit(500).execute()
   const shareIds = user.role === 'student' ? [] : await shareableCohortIds(user)
   const shareable = shareIds.length ? await db.selectFrom('cohorts').select(['id', 'name']).where('id', 'in', shareIds).orderBy('name').execute() : []

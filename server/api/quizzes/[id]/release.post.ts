@@ -1,5 +1,5 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
+import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { quizPhase } from '~~/server/utils/quiz/timing'
 
@@ -10,6 +10,7 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsAs(event, idParam)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
+  assertManagesQuiz(user, quiz)
   if (quiz.released_at) {
     return { releasedAt: quiz.released_at, mailed: 0, message: 'The results were already released.' }
   }

@@ -1,5 +1,5 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { quizForStaff, quizReach } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { resultsCsv } from '~~/server/utils/quiz/csv'
 import { computeResults } from '~~/server/utils/quiz/results'
@@ -9,7 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id } = paramsAs(event, idParam)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
-  const { columns, rows } = await computeResults(db, quiz)
+  const { columns, rows } = await computeResults(db, quiz, new Date(), await quizReach(db, user, id))
   const slug = quiz.title.toLowerCase().replace(/[^a-z0-9]+/g, '-').replace(/^-|-$/g, '').slice(0, 40) || 'quiz'
   setResponseHeader(event, 'content-type', 'text/csv; charset=utf-8')
   setResponseHeader(event, 'content-disposition', `attachment; filename="${slug}-${quiz.id}-results.csv"`)

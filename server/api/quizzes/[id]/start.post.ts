@@ -12,6 +12,9 @@ export default defineEventHandler(async (event) => {
   const db = await useDb()
   const quiz = await quizForStudent(db, user, id)
   const existing = await sittingOf(db, id, user.id)
+  if (!existing && quiz.released_at) {
+    throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'The results of this quiz have been released; it can no longer be started.', data: { code: 'quiz-released' } })
+  }
   if (!existing) {
     const phase = quizPhase(quiz)
     if (phase !== 'open') {

@@ -1,5 +1,5 @@
 import { quizAttemptParams } from '#shared/schemas/quiz'
-import { quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
+import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
 import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
 
 // Staff open any attempt of a quiz they manage; a student only their own (anyone
@@ -13,5 +13,7 @@ export default defineEventHandler(async (event) => {
   if (user.role === 'student') q = q.where('learner_id', '=', user.id)
   const attempt = await q.executeTakeFirst()
   if (!attempt) notFound('That attempt')
+  // a tutor reaches only their own cohorts' students
+  await assertStudentInReach(db, user, id, attempt.learner_id)
   return quizAttemptView(db, user, quiz, attempt)
 })

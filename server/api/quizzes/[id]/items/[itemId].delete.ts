@@ -1,5 +1,5 @@
 import { quizItemParams } from '#shared/schemas/quiz'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
 import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
   const { id, itemId } = paramsAs(event, quizItemParams)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
+  assertManagesQuiz(user, quiz)
   await quizItemOf(db, id, itemId)
   await assertUnlocked(db, id)
   await db.transaction().execute(async (trx) => {

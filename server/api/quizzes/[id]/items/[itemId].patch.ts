@@ -1,5 +1,5 @@
 import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
 import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/utils/quiz/items'
@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
   const body = await readBodyAs(event, quizItemPatch)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
+  assertManagesQuiz(user, quiz)
   const item = await quizItemOf(db, id, itemId)
   await assertUnlocked(db, id)
   const config = readItemConfig(item)

@@ -1,6 +1,6 @@
 import { idParam } from '#shared/schemas/admin'
 import { quizItemBody } from '#shared/schemas/quiz'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
 import { itemConfigFromBody } from '~~/server/utils/quiz/items'
@@ -11,6 +11,7 @@ export default defineEventHandler(async (event) => {
   const body = await readBodyAs(event, quizItemBody)
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
+  assertManagesQuiz(user, quiz)
   await assertUnlocked(db, id)
   const config = await itemConfigFromBody(db, user, body)
   const last = await db.selectFrom('quiz_items').select(eb => eb.fn.max<number>('position').as('p')).where('quiz_id', '=', id).executeTakeFirst()

@@ -1,5 +1,5 @@
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { assertStudentInReach, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
 import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
@@ -16,6 +16,8 @@ export default defineEventHandler(async (event) => {
   const quiz = await quizForStaff(db, user, id)
   const attempt = await db.selectFrom('attempts').selectAll().where('id', '=', attemptId).where('quiz_id', '=', id).where('kind', '=', 'quiz').executeTakeFirst()
   if (!attempt) notFound('That attempt')
+  // a tutor changes only their own cohorts' students' marks
+  await assertStudentInReach(db, user, id, attempt.learner_id)
   const latest = await db.selectFrom('attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
     .orderBy('id', 'desc').executeTakeFirstOrThrow()
   assertCountingAttempt(attempt.id, latest.id)

@@ -1,5 +1,5 @@
 import { KIND_CRITERIA, overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
-import { quizForStaff } from '~~/server/utils/quiz/access'
+import { assertStudentInReach, quizForStaff } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
 import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
@@ -19,6 +19,8 @@ export default defineEventHandler(async (event) => {
   const quiz = await quizForStaff(db, user, id)
   const attempt = await db.selectFrom('fundus_attempts').selectAll().where('id', '=', attemptId).where('quiz_id', '=', id).where('kind', '=', 'quiz').executeTakeFirst()
   if (!attempt) notFound('That attempt')
+  // a tutor changes only their own cohorts' students' marks
+  await assertStudentInReach(db, user, id, attempt.learner_id)
   const latest = await db.selectFrom('fundus_attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id).where('kind', '=', 'quiz')
     .orderBy('id', 'desc').executeTakeFirstOrThrow()
   assertCountingAttempt(attempt.id, latest.id)

@@ -1,5 +1,5 @@
 import { quizStudentCaseParams } from '#shared/schemas/quiz'
-import { quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
+import { quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { buildItemCase, readItemConfig } from '~~/server/utils/quiz/items'
 import { quizCaseRow, quizItemOf } from '~~/server/utils/quiz/sitting'
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
   const item = await quizItemOf(db, id, itemId)
-  const student = (await quizStudents(db, id)).find(s => s.id === studentId)
+  const student = (await quizStudents(db, id, await quizReach(db, user, id))).find(s => s.id === studentId)
   if (!student) notFound('That student')
   const config = readItemConfig(item)
   const row = await quizCaseRow(db, id, itemId, studentId)
