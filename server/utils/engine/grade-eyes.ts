@@ -9,8 +9,7 @@ import type { Eye, PerEye } from '#shared/engine/types'
 import { EYES, otherEye } from '#shared/engine/types'
 import { degWords, findingWords, hasWords, wroteWords } from './grade-words'
 
-/** An "amount" this large can only be a figure copied off the dial. */
-export const DIAL_FIGURE_FROM = 45
+import { DIAL_FIGURE_FROM } from '#shared/engine/record/lexicon'
 
 const band = (err: number, tol: number): number => (err <= tol ? 1 : err <= 2 * tol ? 0.5 : 0)
 const isDialFigure = (a: number): boolean => a >= DIAL_FIGURE_FROM && a <= 180

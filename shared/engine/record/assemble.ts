@@ -249,10 +249,69 @@ function globals(tokens: Tok[], problems: RecordProblem[]): Globals {
   return { test, distance, prisms, notes, unread, notPerformed }
 }
 
+/**
+ * "RE: PP 4 ex, DG 9 ex / LE: PP 0, DG 0" — eye headings with the positions of gaze under
+ * them. Rewritten position by position ("PP: RE 4 ex, LE 0 / DG: RE 9 ex, LE 0") so the
+ * rest of the assembler reads one layout. An eye with findings but no position under it
+ * ("LE no torsion in any position") gives them for every position.
+ */
+function eyeMajorToGazeMajor(tokens: Tok[]): Tok[] {
+  const isEye = (t: Tok | undefined) => t?.k === 'eye' && t.v !== 'both'
+  const skipSeps = (i: number) => {
+    let j = i
+    while (tokens[j] && (tokens[j]!.k === 'sep' || tokens[j]!.k === 'colon')) j++
+    return j
+  }
+  const firstEye = tokens.findIndex(t => isEye(t))
+  const firstGaze = tokens.findIndex(t => t.k === 'gaze')
+  if (firstEye === -1 || firstGaze === -1 || firstGaze < firstEye) return tokens
+  const eyeAt = tokens.flatMap((t, i) => (isEye(t) ? [i] : []))
+  interface Block { eye: Tok, lead: Tok[], byGaze: Array<{ gaze: Tok, toks: Tok[] }> }
+  const blocks: Block[] = []
+  for (const [k, at] of eyeAt.entries()) {
+    const body = tokens.slice(at + 1, eyeAt[k + 1] ?? tokens.length)
+    const block: Block = { eye: tokens[at]!, lead: [], byGaze: [] }
+    for (const t of body) {
+      if (t.k === 'gaze') block.byGaze.push({ gaze: t, toks: [] })
+      else if (block.byGaze.length) block.byGaze.at(-1)!.toks.push(t)
+      else block.lead.push(t)
+    }
+    blocks.push(block)
+  }
+  const content = (ts: Tok[]) => ts.some(t => CONTENT.has(t.k))
+  // only the heading layout: each eye straight followed by its first position, or with no position at all
+  const headed = blocks.filter(b => b.byGaze.length > 0)
+  if (headed.length === 0) return tokens
+  for (const [k, b] of blocks.entries()) {
+    if (b.byGaze.length === 0) continue
+    if (tokens[skipSeps(eyeAt[k]! + 1)]?.k !== 'gaze' || content(b.lead)) return tokens
+  }
+  const sep = (text: string): Tok => ({ k: 'sep', and: false, text })
+  const gazes: Tok[] = []
+  for (const b of headed) {
+    for (const g of b.byGaze) {
+      if (g.gaze.k === 'gaze' && !gazes.some(x => x.k === 'gaze' && x.v === g.gaze.v)) gazes.push(g.gaze)
+    }
+  }
+  const out: Tok[] = tokens.slice(0, firstEye)
+  for (const g of gazes) {
+    out.push(sep(';'), g, sep(':'))
+    for (const b of blocks) {
+      const toks = b.byGaze.length
+        ? b.byGaze.filter(x => x.gaze.k === 'gaze' && g.k === 'gaze' && x.gaze.v === g.v).flatMap(x => x.toks)
+        : b.lead
+      const findings = toks.filter(t => t.k !== 'sep' && t.k !== 'colon')
+      if (!content(findings)) continue
+      out.push(b.eye, ...findings, sep(','))
+    }
+  }
+  return out
+}
+
 export function assemble(tokens: Tok[]): { sections: GazeSection[], globals: Globals, problems: RecordProblem[] } {
   const problems: RecordProblem[] = []
   const g = globals(tokens, problems)
-  const items = clausesAndGazes(tokens)
+  const items = clausesAndGazes(eyeMajorToGazeMajor(tokens))
   const firstGaze = items.findIndex(x => x.kind === 'gaze')
   const firstFinding = items.findIndex(x => x.kind === 'clause')
   const gazeFirst = firstGaze !== -1 && (firstFinding === -1 || firstGaze < firstFinding)

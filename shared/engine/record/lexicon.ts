@@ -70,6 +70,9 @@ const NUMBER_WORDS: Record<string, number> = {
   eighteen: 18, nineteen: 19, twenty: 20, thirty: 30,
 }
 
+/** An "amount" this large can only be a figure copied off the dial (the grader uses the same line). */
+export const DIAL_FIGURE_FROM = 45
+
 // ("dg" is not a unit here: clinicians write it for downgaze)
 export const DEGREE_UNITS = ['°', 'deg', 'degs', 'degree', 'degrees']
 const PRISM_UNITS = ['pd', 'prism', 'prisms', 'pdpt', 'dioptre', 'dioptres', 'diopter', 'diopters']
@@ -163,6 +166,10 @@ const notDone: Rec = (t, i) => {
   return m ? hit(t, i, m[0], { k: 'notdone' }) : null
 }
 
+const SEE_WORDS = ['see', 'appreciate', 'perceive', 'make', 'distinguish']
+const LINE_WORDS = ['streak', 'streaks', 'line', 'lines', 'light', 'lights']
+const STREAK_COLOURS = ['red', 'white', 'one', 'single']
+
 const REASONS: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, NotPerformedReason]> = [
   [[['suppression', 'suppresses', 'suppressing', 'suppressed', 'suppress', 'supp']], 'suppression'],
   [['arc'], 'abnormal-correspondence'],
@@ -177,6 +184,14 @@ const REASONS: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>
   [['no', 'simultaneous', 'perception'], 'suppression'],
   [['cannot', 'see', 'both'], 'one-streak'],
   [['can\'t', 'see', 'both'], 'one-streak'],
+  [[['could', 'did', 'does', 'do'], 'not', SEE_WORDS, ['both', 'two', '2']], 'one-streak'],
+  [[['couldnt', 'couldn\'t', 'cannot', 'can\'t', 'didnt', 'didn\'t', 'doesnt', 'doesn\'t'], SEE_WORDS, ['both', 'two', '2']], 'one-streak'],
+  [['unable', 'to', SEE_WORDS, ['both', 'two', '2']], 'one-streak'],
+  [[['sees', 'saw', 'seeing', 'see'], STREAK_COLOURS, LINE_WORDS, 'only'], 'one-streak'],
+  [[['sees', 'saw', 'seeing', 'see'], 'only', ['the', 'a', 'one'], STREAK_COLOURS, LINE_WORDS], 'one-streak'],
+  [[['sees', 'saw', 'seeing', 'see'], 'only', STREAK_COLOURS, LINE_WORDS], 'one-streak'],
+  [[['sees', 'saw', 'seeing', 'see'], ['one', '1', 'a', 'single'], LINE_WORDS, 'only'], 'one-streak'],
+  [[STREAK_COLOURS, LINE_WORDS, 'only'], 'one-streak'],
 ]
 
 const reason: Rec = (t, i) => {
@@ -290,6 +305,8 @@ const NOTES: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, 
   [[SIDE, 'fixing'], true],
   [[['upright', 'supine', 'sitting', 'lying', 'dim', 'dimmed', 'room', 'lights', 'light']], true],
   [['torsional', 'diplopia'], true],
+  [[['in', 'at', 'for'], ['any', 'all', 'every', 'each'], ['position', 'positions', 'gaze', 'gazes', 'direction', 'directions']], true],
+  [[['any', 'all', 'every'], ['position', 'positions', 'gazes']], true],
 ]
 
 const note: Rec = (t, i) => {
@@ -297,16 +314,48 @@ const note: Rec = (t, i) => {
   return m ? hit(t, i, m[0], { k: 'note', text: t.slice(i, i + m[0]).map(x => x.text).join(' ') }) : null
 }
 
-/** "dial 98°", "reading 98", "rod at 98°" — the dial figure beside a finding is noted, not read as an amount. */
+/** "→", "->", "=>": a conversion written out ("RE 98 → 8° ex"). */
+function arrowAt(t: RawToken[], i: number): number {
+  if (w(t, i) === '→' || w(t, i) === '⇒') return 1
+  if ((w(t, i) === '-' || w(t, i) === '=') && w(t, i + 1) === '>') return 2
+  return 0
+}
+
+/**
+ * "dial 98°", "reading 98", "rod at 98°", "(dial: RE 98, LE 90)" — dial figures beside a finding
+ * are noted, not read as amounts; so is a figure converted with an arrow ("98 → 8° ex").
+ */
 const dialNote: Rec = (t, i) => {
   let j = i
-  if (['dial', 'reading', 'readings', 'scale', 'read'].includes(w(t, j))) j++
+  if (t[i]?.type === 'num') {
+    const n = Number(t[i]!.text)
+    const k = i + 1 + (DEGREE_UNITS.includes(w(t, i + 1)) ? 1 : 0)
+    const arrow = arrowAt(t, k)
+    if (!arrow || n < DIAL_FIGURE_FROM || n > 180) return null
+    return hit(t, i, k - i + arrow, { k: 'note', text: t.slice(i, k + arrow).map(x => x.text).join(' ') })
+  }
+  if (['dial', 'dials', 'reading', 'readings', 'scale', 'read'].includes(w(t, j))) j++
   else if (['rod', 'axis'].includes(w(t, j)) && ['at', '='].includes(w(t, j + 1))) j += 2
   else return null
-  if (['at', 'of', '=', 'was', ':'].includes(w(t, j))) j++
-  if (t[j]?.type !== 'num') return null
-  j++
-  if (DEGREE_UNITS.includes(w(t, j))) j++
+  if (['at', 'of', '=', 'was', ':', 'were'].includes(w(t, j))) j++
+  // one figure, or one per eye: "RE 98, LE 90"
+  let figures = 0
+  for (;;) {
+    let k = j
+    const e = longest(t, k, EYE_TABLE)
+    if (e && e[1] !== 'both') k += e[0]
+    if (['at', '=', ':'].includes(w(t, k))) k++
+    if (t[k]?.type !== 'num') break
+    k++
+    if (DEGREE_UNITS.includes(w(t, k))) k++
+    figures++
+    j = k
+    if (!e || ![',', 'and', '&', ';'].includes(w(t, j))) break
+    const next = longest(t, j + 1, EYE_TABLE)
+    if (!next) break
+    j++
+  }
+  if (figures === 0) return null
   return hit(t, i, j - i, { k: 'note', text: t.slice(i, j).map(x => x.text).join(' ') })
 }
 
@@ -314,6 +363,8 @@ const METRE = ['m', 'metre', 'metres', 'meter', 'meters']
 
 const distance: Rec = (t, i) => {
   const x = w(t, i)
+  // "Distance: near" — the word is a label for what follows
+  if (x === 'distance' && w(t, i + 1) === ':') return hit(t, i, 1, null)
   if (['near', 'n', 'nr'].includes(x)) return hit(t, i, 1, { k: 'dist', v: 'near' })
   if (['distance', 'dist', 'd', 'far', 'f', 'distant', 'distances'].includes(x)) {
     return hit(t, i, 1, { k: 'dist', v: 'distance' })
@@ -426,6 +477,8 @@ function gazePhrase(t: RawToken[], i: number): { len: number, gaze: Gaze } | nul
 const EYE_WORDS = new Set(['re', 'le', 'r', 'l', 'od', 'os', 'rt', 'lt', 'right', 'left', 'eye', 'be', 'ou'])
 
 const gaze: Rec = (t, i) => {
+  // "reading position": the trade's name for the downgaze of near work
+  if (w(t, i) === 'reading' && ['position', 'posn', 'pos'].includes(w(t, i + 1))) return hit(t, i, 2, { k: 'gaze', v: 'down' })
   // "20° downgaze", "20 degrees of downgaze"
   const n = numberAt(t, i)
   if (n !== null && t[i]!.type === 'num') {
@@ -538,11 +591,18 @@ const direction: Rec = (t, i) => {
     // "in" is a preposition before a position of gaze, a distance or "the"
     const next = i + 1
     const n = w(t, next)
-    if (['the', 'a', 'an', 'each', 'both', 'either', 'neither', 'this', 'that', 'primary', 'dim', 'dimmed', 'room', 'trial', 'all'].includes(n)) {
+    if (['the', 'a', 'an', 'each', 'both', 'either', 'neither', 'this', 'that', 'primary', 'dim', 'dimmed', 'room', 'trial', 'all', 'any', 'every'].includes(n)) {
       return hit(t, i, 1, null)
     }
     if (gaze(t, next) || distance(t, next)) return hit(t, i, 1, null)
-    return hit(t, i, 1, { k: 'in', beforeEye: eye(t, next) !== null })
+    const e = eye(t, next)
+    // "OD 3 in OS 6 ex": the next eye's finding names its direction, so this "in" is one too
+    if (e && numberAt(t, next + e.len) !== null) {
+      let k = next + e.len + 1
+      if (DEGREE_UNITS.includes(w(t, k))) k++
+      if (EX_WORDS.has(w(t, k)) || IN_WORDS.has(w(t, k))) return hit(t, i, 1, { k: 'dir', v: 'incyclo' })
+    }
+    return hit(t, i, 1, { k: 'in', beforeEye: e !== null })
   }
   return null
 }
@@ -559,8 +619,9 @@ const filler: Rec = (t, i) => (FILLERS.has(w(t, i)) ? hit(t, i, 1, null) : null)
 /** Recognisers in priority order: longer, more specific phrases first. */
 const RECOGNISERS: Rec[] = [
   separator,
-  notDone,
+  // a reason phrase may start like "not done" ("could not see both lines"): the longer reading wins
   reason,
+  notDone,
   test,
   prism,
   deviationNote,
