@@ -90,11 +90,33 @@ export function declaresBody(req: IncomingMessage): boolean {
   return /\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))
 }
 
+/** After a refusal, how much more of the body is read (and dropped) before the connection is cut. */
+const DRAIN_MAX_BYTES = 4 * 1024 * 1024
+const DRAIN_MAX_MS = 10_000
+
+/**
+ * Lets the client finish sending for a little while (bytes are dropped, not kept),
+ * so it can read the refusal: cutting the connection at once while it still sends
+ * would reset it and lose the answer. Past 4 MB or 10 s the connection is cut.
+ */
+function drainThenCut(req: IncomingMessage) {
+  let dropped = 0
+  const cut = () => req.socket?.destroy()
+  const timer = setTimeout(cut, DRAIN_MAX_MS)
+  timer.unref?.()
+  req.on('data', (chunk: Buffer) => {
+    dropped += chunk.length
+    if (dropped > DRAIN_MAX_BYTES) cut()
+  })
+  req.once('end', () => clearTimeout(timer))
+  req.once('close', () => clearTimeout(timer))
+  req.resume()
+}
+
 /**
  * Reads the body, counting bytes as they arrive; refuses with 413 as soon as it
  * passes `max` (or at once when Content-Length already says so), without ever
- * holding more than `max` bytes. The connection is closed after the refusal so the
- * rest of an oversized body is not read.
+ * holding more than `max` bytes.
  */
 export function readLimitedBody(event: H3Event, max = JSON_BODY_MAX_BYTES): Promise<Buffer> {
   const req = event.node.req
@@ -104,7 +126,7 @@ export function readLimitedBody(event: H3Event, max = JSON_BODY_MAX_BYTES): Prom
       throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The Content-Length header is not a number.', data: { code: 'bad-length' } })
     }
     if (Number(declared) > max) {
-      setResponseHeader(event, 'connection', 'close')
+      drainThenCut(req)
       tooLarge()
     }
   }
@@ -124,15 +146,14 @@ export function readLimitedBody(event: H3Event, max = JSON_BODY_MAX_BYTES): Prom
     const onData = (chunk: Buffer) => {
       size += chunk.length
       if (size > max) {
-        req.pause()
         chunks.length = 0
-        setResponseHeader(event, 'connection', 'close')
         try {
           tooLarge()
         }
         catch (e) {
           finish(e)
         }
+        drainThenCut(req)
         return
       }
       chunks.push(chunk)
