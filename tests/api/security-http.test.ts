@@ -199,14 +199,15 @@ describe('point 12: cross-site requests', () => {
   })
 
   it('refuses another origin, a "null" origin and cross-site or same-site fetch metadata with 403', async () => {
-    for (const headers of [
+    const variants: Record<string, string>[] = [
       { origin: 'http://evil.invalid' },
       { origin: 'null' },
       { origin: baseURL.replace('127.0.0.1', 'localhost') },
       { 'origin': '', 'sec-fetch-site': 'cross-site' },
       { 'origin': '', 'sec-fetch-site': 'same-site' }, // a sibling subdomain: SameSite=Lax cookies would still go
       { 'sec-fetch-site': 'cross-site' },
-    ]) {
+    ]
+    for (const headers of variants) {
       const reply = await tutor.request('POST', '/api/record-check', check, { headers })
       expect(reply.status, JSON.stringify(headers)).toBe(403)
       expect(reply.body.message).toMatch(/cannot change anything/)
