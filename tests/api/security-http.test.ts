@@ -55,17 +55,19 @@ function rawPost(path: string, opts: { headers: Record<string, string>, chunks: 
       sentBytes += opts.partialBytes
       return
     }
+    // one chunk per turn of the event loop, as a browser uploading would: the
+    // answer is read as soon as it comes, while the rest is still being sent
     let i = 0
     const pump = () => {
-      while (i < opts.chunks && !answered && !failed) {
-        i++
-        sentBytes += chunk.length
-        if (!req.write(chunk)) {
-          req.once('drain', pump)
-          return
-        }
+      if (answered || failed) return
+      if (i >= opts.chunks) {
+        req.end()
+        return
       }
-      if (!answered && !failed) req.end()
+      i++
+      sentBytes += chunk.length
+      if (req.write(chunk)) setImmediate(pump)
+      else req.once('drain', pump)
     }
     pump()
   })
