@@ -90,26 +90,40 @@ export function declaresBody(req: IncomingMessage): boolean {
   return /\bchunked\b/i.test(String(req.headers['transfer-encoding'] ?? ''))
 }
 
-/** After a refusal, how much more of the body is read (and dropped) before the connection is cut. */
-const DRAIN_MAX_BYTES = 4 * 1024 * 1024
+/** After a refusal: the most of the rest of the body read (and dropped), and for how long. */
+const DRAIN_MAX_BYTES = 64 * 1024 * 1024
 const DRAIN_MAX_MS = 10_000
+/** How long the client has to read the refusal before the connection is cut. */
+const DRAIN_AFTER_ANSWER_MS = 2_000
 
 /**
- * Lets the client finish sending for a little while (bytes are dropped, not kept),
- * so it can read the refusal: cutting the connection at once while it still sends
- * would reset it and lose the answer. Past 4 MB or 10 s the connection is cut.
+ * Lets the client go on sending for a moment (the bytes are dropped, not kept) so
+ * it can read the refusal: cutting the connection while it still sends resets it,
+ * and a reset throws away an answer the client has not read yet. The connection is
+ * cut 2 s after the answer went out, after 10 s, or after 64 MB, whichever is first.
  */
-function drainThenCut(req: IncomingMessage) {
+function drainThenCut(event: H3Event) {
+  const req = event.node.req
   let dropped = 0
-  const cut = () => req.socket?.destroy()
-  const timer = setTimeout(cut, DRAIN_MAX_MS)
-  timer.unref?.()
+  const timers: ReturnType<typeof setTimeout>[] = []
+  const cut = () => {
+    timers.forEach(clearTimeout)
+    req.socket?.destroy()
+  }
+  const later = (ms: number) => {
+    const t = setTimeout(cut, ms)
+    t.unref?.()
+    timers.push(t)
+  }
+  later(DRAIN_MAX_MS)
+  event.node.res.once('finish', () => later(DRAIN_AFTER_ANSWER_MS))
   req.on('data', (chunk: Buffer) => {
     dropped += chunk.length
     if (dropped > DRAIN_MAX_BYTES) cut()
   })
-  req.once('end', () => clearTimeout(timer))
-  req.once('close', () => clearTimeout(timer))
+  const done = () => timers.forEach(clearTimeout)
+  req.once('end', done)
+  req.once('close', done)
   req.resume()
 }
 
@@ -126,7 +140,7 @@ export function readLimitedBody(event: H3Event, max = JSON_BODY_MAX_BYTES): Prom
       throw createError({ statusCode: 400, statusMessage: 'Bad Request', message: 'The Content-Length header is not a number.', data: { code: 'bad-length' } })
     }
     if (Number(declared) > max) {
-      drainThenCut(req)
+      drainThenCut(event)
       tooLarge()
     }
   }
@@ -153,7 +167,7 @@ export function readLimitedBody(event: H3Event, max = JSON_BODY_MAX_BYTES): Prom
         catch (e) {
           finish(e)
         }
-        drainThenCut(req)
+        drainThenCut(event)
         return
       }
       chunks.push(chunk)
