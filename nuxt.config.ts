@@ -46,6 +46,10 @@ export default defineNuxtConfig({
     // Uploaded fundus photographs; empty = a fundus-photos folder beside the database.
     fundusPhotoDir: '',
     seedDemo: '',
+    // The built server never seeds the demo school unless this is also 1 (NUXT_SEED_DEMO_IN_PRODUCTION).
+    seedDemoInProduction: '',
+    // Set (NUXT_TRUSTED_PROXY=1) only behind a reverse proxy that sets X-Forwarded-Proto itself.
+    trustedProxy: '',
     mailCatcher: '',
     mailCatcherPort: '',
     // First retry delay for mail that failed to send; doubles each attempt (max 1 h).

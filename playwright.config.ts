@@ -44,6 +44,7 @@ export default defineConfig({
       PORT: String(port),
       NUXT_DB_PATH: dbPath,
       NUXT_SEED_DEMO: '1',
+      NUXT_SEED_DEMO_IN_PRODUCTION: '1',
       NUXT_MAIL_CATCHER: '1',
       NUXT_MAIL_CATCHER_PORT: '0',
       NUXT_SESSION_PASSWORD: 'e2e-only-session-password-0123456789abcdef',

@@ -22,10 +22,15 @@ export interface CasebookData {
   templates: CasebookTemplateView[]
   cases: CasebookCaseView[]
   defaults: { tolerance: number, weights: Record<QuizCriterion, number> }
+  /** Paging: the same page of templates and of exact cases, each with its total. */
+  page: number
+  pageSize: number
+  templatesTotal: number
+  casesTotal: number
 }
 
-export function useCasebook(archived: Ref<'0' | '1'> = ref('0')) {
-  return useFetch<CasebookData>('/api/casebook', { key: 'casebook', query: { archived } })
+export function useCasebook(archived: Ref<'0' | '1'> = ref('0'), page: Ref<number> = ref(1)) {
+  return useFetch<CasebookData>('/api/casebook', { key: 'casebook', query: { archived, page } })
 }
 
 /** What a template's torsion range measures, in words. */

@@ -1,9 +1,11 @@
-// Start-up checks: refuse to serve in production without a session password,
-// then open, migrate and (when asked) seed the database straight away.
+// Start-up checks: refuse to serve in production without a session password, or
+// with one that is long but trivially weak, then open, migrate and (when asked)
+// seed the database straight away.
 export default defineNitroPlugin(() => {
   const password = String(useRuntimeConfig().session?.password ?? '')
-  if (!import.meta.dev && password.length < 32) {
-    console.error('[cyclodial] NUXT_SESSION_PASSWORD must be set to at least 32 characters in production. Refusing to start.')
+  const problem = import.meta.dev ? null : sessionPasswordProblem(password)
+  if (problem) {
+    console.error(`[cyclodial] ${problem} Refusing to start.`)
     process.exit(1)
   }
   useDb().catch((error) => {

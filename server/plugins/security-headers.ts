@@ -1,6 +1,8 @@
 // Security headers for production responses. HTML pages get a Content Security
 // Policy with a fresh nonce for Nuxt's own inline scripts: no 'unsafe-eval',
-// no framing. Development skips this (Vite's client needs eval for HMR).
+// no framing. Responses served over HTTPS (direct TLS, or a trusted proxy's
+// X-Forwarded-Proto: https) carry Strict-Transport-Security. Development skips
+// this (Vite's client needs eval for HMR).
 import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 
@@ -34,8 +36,11 @@ function withNonce(chunks: string[], nonce: string): string[] {
 export default defineNitroPlugin((nitro) => {
   if (import.meta.dev) return
 
+  const trustProxy = trustedProxyConfigured(useRuntimeConfig().trustedProxy)
+
   nitro.hooks.hook('request', (event: H3Event) => {
     setResponseHeaders(event, BASE_HEADERS)
+    if (servedOverHttps(event, trustProxy)) setResponseHeader(event, 'Strict-Transport-Security', HSTS_VALUE)
     if (!event.path.startsWith('/api/')) return
     setResponseHeader(event, 'Content-Security-Policy', `default-src 'none'; frame-ancestors 'none'`)
     setResponseHeader(event, 'Cache-Control', 'no-store')

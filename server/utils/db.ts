@@ -16,6 +16,8 @@ export function useDb(): Promise<Kysely<Database>> {
     await seedDemoIfWanted(db, {
       dev: import.meta.dev,
       flag: String(config.seedDemo ?? ''),
+      production: !import.meta.dev,
+      productionFlag: String(config.seedDemoInProduction ?? ''),
       hashPassword,
       log: line => console.info(`[seed] ${line}`),
     })

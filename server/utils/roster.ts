@@ -2,6 +2,7 @@
 // parsing with papaparse into a per-row report. Importing is all-or-nothing, so
 // the report must be clean before anything is written.
 import Papa from 'papaparse'
+import { hasControlCharacters } from '#shared/schemas/text'
 import { z } from 'zod'
 import type { RosterReport, RosterRow } from '#shared/types/roster'
 
@@ -91,6 +92,7 @@ export function checkRoster(text: string, ctx: RosterContext): RosterReport {
     const cohortText = col('cohort') >= 0 ? (fields[col('cohort')] ?? '').trim() : ''
     const problems: string[] = []
     if (!name) problems.push('Name is missing.')
+    else if (hasControlCharacters(fields[col('name')] ?? '')) problems.push('Name contains a line break, tab or other control character.')
     else if (name.length > 120) problems.push('Name is longer than 120 characters.')
     if (!email) problems.push('E-mail is missing.')
     else if (!emailCheck.safeParse(email).success) problems.push(`“${email}” is not a valid e-mail address.`)

@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { emailField, nameField, roleField } from './auth'
+import { oneLineName } from './text'
 
 export const idParam = z.object({
   id: z.coerce.number({ error: 'The id must be a number.' }).int().positive({ error: 'The id must be a positive whole number.' }),
@@ -30,7 +31,7 @@ export const inviteBody = z.object({
 })
 
 export const cohortBody = z.object({
-  name: z.string({ error: 'Cohort name is required.' }).trim().min(2, { error: 'Cohort name needs at least 2 characters.' }).max(120, { error: 'Cohort name is too long.' }),
+  name: oneLineName('Cohort name', 2, 120),
 })
 
 export const pageQuery = z.object({

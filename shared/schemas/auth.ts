@@ -1,5 +1,6 @@
 import { z } from 'zod'
 import { ROLES } from '../auth/roles'
+import { oneLineName } from './text'
 
 export const emailField = z.string({ error: 'E-mail is required.' })
   .trim()
@@ -10,10 +11,7 @@ export const passwordField = z.string({ error: 'Password is required.' })
   .min(10, { error: 'Use at least 10 characters for the password.' })
   .max(200, { error: 'Password is too long (200 characters at most).' })
 
-export const nameField = z.string({ error: 'Name is required.' })
-  .trim()
-  .min(1, { error: 'Name is required.' })
-  .max(120, { error: 'Name is too long (120 characters at most).' })
+export const nameField = oneLineName('Name', 1, 120)
 
 export const loginBody = z.object({
   email: emailField,

@@ -77,6 +77,14 @@ export interface StudentSitting {
   finishedAt: string | null
 }
 
+/** GET /api/quizzes: one page of the list, newest opening first. */
+export interface QuizPage<T> {
+  items: T[]
+  total: number
+  page: number
+  pageSize: number
+}
+
 export interface StudentQuizSummary {
   id: number
   title: string

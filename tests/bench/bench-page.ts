@@ -41,7 +41,7 @@ try {
   const page = await context.newPage()
   const login = await page.request.post('/api/auth/login', { data: { email: 'student@cyclodial.test', password: 'cyclodial-demo' } })
   if (!login.ok()) throw new Error(`sign-in failed: ${login.status()}`)
-  const created = await page.request.post('/api/practice', { data: { template: 'so-palsy-right', seed: 'bench-page-1' } })
+  const created = await page.request.post('/api/practice', { headers: { origin: server.baseURL }, data: { template: 'so-palsy-right', seed: 'bench-page-1' } })
   if (created.status() !== 201) throw new Error(`could not open a case: ${created.status()} ${await created.text()}`)
   const { id } = await created.json()
 

@@ -45,12 +45,12 @@ export async function httpBench(seconds = 8, connections = 20): Promise<{ health
     if (!login.ok) throw new Error(`sign-in failed: ${login.status}`)
     const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
     const checkBody = JSON.stringify({ torsion: { RE: 10, LE: 0 }, gaze: 'primary', distance: 'near', readings: { RE: 100, LE: 90 }, record: 'DMR N PP: RE 10 in, LE nil' })
-    const probe = await fetch(`${server.baseURL}/api/record-check`, { method: 'POST', headers: { cookie, 'content-type': 'application/json' }, body: checkBody })
+    const probe = await fetch(`${server.baseURL}/api/record-check`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', 'origin': server.baseURL }, body: checkBody })
     if (!probe.ok) throw new Error(`record-check probe failed: ${probe.status}`)
 
     // warm both routes, then measure them alternately so drift hits both alike
     await run({ url: `${server.baseURL}/api/health`, seconds: 2, connections })
-    await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json' }, seconds: 2, connections })
+    await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json', 'origin': server.baseURL }, seconds: 2, connections })
     const healthRuns: autocannon.Result[] = []
     const meRuns: autocannon.Result[] = []
     const checkRuns: autocannon.Result[] = []
@@ -58,7 +58,7 @@ export async function httpBench(seconds = 8, connections = 20): Promise<{ health
     for (let i = 0; i < rounds; i++) {
       healthRuns.push(await run({ url: `${server.baseURL}/api/health`, seconds: seconds / rounds, connections }))
       meRuns.push(await run({ url: `${server.baseURL}/api/auth/me`, headers: { cookie }, seconds: seconds / rounds, connections }))
-      checkRuns.push(await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json' }, seconds: seconds / rounds, connections }))
+      checkRuns.push(await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json', 'origin': server.baseURL }, seconds: seconds / rounds, connections }))
     }
     const merge = (route: string, rs: autocannon.Result[]): HttpStats => {
       const all = rs.map(r => stats(route, r))

@@ -6,7 +6,7 @@ import { expect, test } from '@playwright/test'
 import type { Locator, Page, Response } from '@playwright/test'
 import { SLIP_INFO } from '../../shared/engine/slips'
 import type { SlipCode } from '../../shared/engine/slips'
-import { signIn } from './helpers'
+import { sameOrigin, signIn } from './helpers'
 
 // so-palsy-right, standard, this seed: a reliable patient who sees both lines, with
 // a vertical deviation that keeps them apart (chosen so the lines never overlap).
@@ -18,7 +18,7 @@ type Eye = 'RE' | 'LE'
 const COLOUR: Record<Eye, string> = { RE: 'red', LE: 'white' }
 
 async function openCase(page: Page, mode = 'learner-turns'): Promise<number> {
-  const res = await page.request.post('/api/practice', { data: { template: TEMPLATE, seed: SEED, mode } })
+  const res = await page.request.post('/api/practice', { headers: sameOrigin(page), data: { template: TEMPLATE, seed: SEED, mode } })
   expect(res.status()).toBe(201)
   const body = await res.json()
   expect(body.presentation.response).toMatchObject({ reliability: 'fine', streaksSeen: 'both' })

@@ -5,7 +5,7 @@ import type { FundusPicture } from '#shared/engine/fundus/picture'
 import type { Eye } from '#shared/engine/types'
 import type { CaseFundusView } from '#shared/types/fundus'
 import { SYNTHETIC_PHOTO, syntheticPng } from '../support/fundus'
-import { signIn } from './helpers'
+import { sameOrigin, signIn } from './helpers'
 
 const LABEL: Record<string, string> = { 'excyclo': 'Excyclotorsion', 'incyclo': 'Incyclotorsion', 'within-normal': 'Within the normal range' }
 
@@ -19,7 +19,7 @@ test.use({ hasTouch: true })
 
 test('a student marks both eyes of a generated case precisely, by pointer, touch and keyboard, and agrees with the case within a degree', async ({ page }) => {
   await signIn(page, 'student@cyclodial.test')
-  const started = await page.request.post('/api/practice', { data: { template: 'long-standing-so-palsy', difficulty: 'standard', seed: 'e2e-fundus-1' } })
+  const started = await page.request.post('/api/practice', { headers: sameOrigin(page), data: { template: 'long-standing-so-palsy', difficulty: 'standard', seed: 'e2e-fundus-1' } })
   expect(started.status()).toBe(201)
   const caseId = (await started.json()).id as number
   // from the bench, beside the trial frame

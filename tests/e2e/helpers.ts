@@ -14,3 +14,12 @@ export async function signOut(page: Page) {
   await page.getByRole('button', { name: 'Sign out' }).click()
   await expect(page).toHaveURL(/\/login/)
 }
+
+/**
+ * Headers for page.request calls that change something: Playwright's request API,
+ * unlike the browser's own fetch, sends no Origin, and the server refuses a
+ * signed-in POST/PUT/PATCH/DELETE without one.
+ */
+export function sameOrigin(page: Page): { origin: string } {
+  return { origin: new URL(page.url()).origin }
+}

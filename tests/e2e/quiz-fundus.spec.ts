@@ -5,7 +5,7 @@
 import { expect, test } from '@playwright/test'
 import type { Page } from '@playwright/test'
 import type { StudentFundusItem } from '#shared/types/quiz'
-import { signIn } from './helpers'
+import { sameOrigin, signIn } from './helpers'
 
 const TITLE = 'Browser quiz: a fundus'
 const minutesFromNow = (m: number) => new Date(Date.now() + m * 60_000).toISOString()
@@ -21,7 +21,7 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   await signIn(tutor, 'tutor@cyclodial.test')
   const cohorts = await (await tutor.request.get('/api/quizzes/cohorts')).json() as { id: number, name: string }[]
   const kestrel = cohorts.find(c => c.name === 'Kestrel cohort')!.id
-  const created = await (await tutor.request.post('/api/quizzes', { data: { title: TITLE, opensAt: minutesFromNow(-1), closesAt: minutesFromNow(60), cohortIds: [kestrel] } })).json() as { id: number }
+  const created = await (await tutor.request.post('/api/quizzes', { headers: sameOrigin(tutor), data: { title: TITLE, opensAt: minutesFromNow(-1), closesAt: minutesFromNow(60), cohortIds: [kestrel] } })).json() as { id: number }
 
   // the builder: a fundus item whose picture is a generated case's fundus
   await tutor.goto(`/quizzes/${created.id}`)
@@ -32,7 +32,7 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   await expect(tutor.getByText('Item 1 added.')).toBeVisible()
   await expect(tutor.getByTestId('fundus-item-1')).toContainText('both eyes')
   await tutor.screenshot({ path: 'test-results/screenshots/quiz-fundus-builder.png', fullPage: true })
-  expect((await tutor.request.patch(`/api/quizzes/${created.id}`, { data: { published: true } })).status()).toBe(200)
+  expect((await tutor.request.patch(`/api/quizzes/${created.id}`, { headers: sameOrigin(tutor), data: { published: true } })).status()).toBe(200)
 
   const student = await browser.newPage({ viewport: { width: 1280, height: 720 } })
   await signIn(student, 'adaeze.quillon@cyclodial.test')

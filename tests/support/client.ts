@@ -1,5 +1,6 @@
 // A tiny HTTP client with a cookie jar, for talking to the built server the way
-// a browser would (sealed session cookie included).
+// a browser would (sealed session cookie included, and an Origin header naming the
+// site on every request that changes something, as browsers send).
 export interface Reply<T = any> { status: number, body: T, headers: Headers }
 
 export class Client {
@@ -7,7 +8,9 @@ export class Client {
   constructor(readonly baseURL: string) {}
 
   async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string, headers?: Record<string, string> } = {}): Promise<Reply<T>> {
-    const headers: Record<string, string> = { accept: 'application/json', ...init.headers }
+    const headers: Record<string, string> = { accept: 'application/json', ...this.originFor(method), ...init.headers }
+    // an explicit empty header in init.headers means "send none" (cross-site tests)
+    for (const [k, v] of Object.entries(headers)) if (v === '') delete headers[k]
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
     let payload: string | undefined
     if (init.raw !== undefined) {
@@ -33,9 +36,14 @@ export class Client {
     return { status: res.status, body: parsed as T, headers: res.headers }
   }
 
+  /** Browsers send Origin on every POST, PUT, PATCH and DELETE (Fetch standard). */
+  private originFor(method: string): Record<string, string> {
+    return ['GET', 'HEAD'].includes(method.toUpperCase()) ? {} : { origin: new URL(this.baseURL).origin }
+  }
+
   /** A multipart upload (e.g. a roster file), with this client's session. */
   async postForm<T = any>(path: string, form: FormData): Promise<Reply<T>> {
-    const headers: Record<string, string> = { accept: 'application/json' }
+    const headers: Record<string, string> = { accept: 'application/json', ...this.originFor('POST') }
     if (this.cookies.size) headers.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
     const res = await fetch(`${this.baseURL}${path}`, { method: 'POST', headers, body: form, redirect: 'manual' })
     const text = await res.text()

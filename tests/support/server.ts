@@ -53,6 +53,8 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     PORT: String(port),
     NUXT_DB_PATH: dbPath,
     NUXT_SEED_DEMO: options.seed === false ? '0' : '1',
+    // the built server runs as production, which seeds the demo only when asked twice
+    NUXT_SEED_DEMO_IN_PRODUCTION: options.seed === false ? '0' : '1',
     NUXT_MAIL_CATCHER: '1',
     NUXT_MAIL_CATCHER_PORT: String(mailPort),
     NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,

@@ -1,13 +1,16 @@
 import { z } from 'zod'
+import { listPaging } from '#shared/schemas/quiz'
 import { CASEBOOK_ROLES, caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/utils/quiz/casebook'
 import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
 import { DEFAULT_GRADE_TOLERANCE } from '~~/server/utils/engine/grader'
 
-const query = z.object({ archived: z.enum(['0', '1'], { error: 'Archived must be 0 or 1.' }).default('0') })
+const query = z.object({ archived: z.enum(['0', '1'], { error: 'Archived must be 0 or 1.' }).default('0'), ...listPaging })
 
+// Paged: `page` (from 1) and `pageSize` (default 50, at most 100) apply to the
+// templates and to the exact cases alike, each in title order, with each list's total.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
-  const { archived } = queryAs(event, query)
+  const { archived, page, pageSize } = queryAs(event, query)
   const db = await useDb()
   let templates = db.selectFrom('casebook_templates').leftJoin('users', 'users.id', 'casebook_templates.owner_id')
     .selectAll('casebook_templates').select('users.name as ownerName')
@@ -21,14 +24,21 @@ export default defineEventHandler(async (event) => {
     templates = templates.where('casebook_templates.archived_at', 'is', null)
     cases = cases.where('casebook_cases.archived_at', 'is', null)
   }
-  const [t, c] = await Promise.all([
-    templates.orderBy('casebook_templates.title').execute(),
-    cases.orderBy('casebook_cases.title').execute(),
+  const offset = (page - 1) * pageSize
+  const [t, c, templatesTotal, casesTotal] = await Promise.all([
+    templates.orderBy('casebook_templates.title').orderBy('casebook_templates.id').limit(pageSize).offset(offset).execute(),
+    cases.orderBy('casebook_cases.title').orderBy('casebook_cases.id').limit(pageSize).offset(offset).execute(),
+    templates.clearSelect().select(eb => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow(),
+    cases.clearSelect().select(eb => eb.fn.countAll<number>().as('n')).executeTakeFirstOrThrow(),
   ])
   return {
     engine: engineTemplateList(),
     templates: t.map(templateOut),
     cases: c.map(caseOut),
+    page,
+    pageSize,
+    templatesTotal: Number(templatesTotal.n),
+    casesTotal: Number(casesTotal.n),
     defaults: { tolerance: DEFAULT_GRADE_TOLERANCE, weights: DEFAULT_QUIZ_WEIGHTS },
   }
 })

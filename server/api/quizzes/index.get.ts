@@ -4,16 +4,21 @@ import { staffSummaries, studentSummary } from '~~/server/utils/quiz/present'
 
 // The quizzes the caller may see: lecturers and admins every quiz; a tutor their own
 // and their cohorts'; a student the published quizzes assigned to their cohort.
+// Paged: `page` (from 1) and `pageSize` (default 50, at most 100), newest opening first.
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)
-  const { archived } = queryAs(event, quizListQuery)
+  const { archived, page, pageSize } = queryAs(event, quizListQuery)
   const db = await useDb()
   const visible = await visibleQuizIds(db, user)
-  if (visible !== 'all' && !visible.length) return { items: [] }
-  let q = db.selectFrom('quizzes').selectAll()
+  if (visible !== 'all' && !visible.length) return { items: [], total: 0, page, pageSize }
+  let q = db.selectFrom('quizzes')
   if (visible !== 'all') q = q.where('id', 'in', visible)
   if (user.role !== 'student') q = q.where('archived_at', archived === '1' ? 'is not' : 'is', null)
-  const quizzes = await q.orderBy('opens_at', 'desc').orderBy('id', 'desc').execute()
+  const [{ total }, quizzes] = await Promise.all([
+    q.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow(),
+    q.selectAll().orderBy('opens_at', 'desc').orderBy('id', 'desc').limit(pageSize).offset((page - 1) * pageSize).execute(),
+  ])
+  const paging = { total: Number(total), page, pageSize }
   const now = new Date()
 
   if (user.role === 'student') {
@@ -26,7 +31,8 @@ export default defineEventHandler(async (event) => {
       : [[], []]
     return {
       items: quizzes.map(x => studentSummary(x, sittings.find(s => s.quiz_id === x.id), Number(counts.find(c => c.quiz_id === x.id)?.n ?? 0), now)),
+      ...paging,
     }
   }
-  return { items: await staffSummaries(db, user, quizzes, now) }
+  return { items: await staffSummaries(db, user, quizzes, now), ...paging }
 })

@@ -1,8 +1,8 @@
 // Results as CSV (RFC 4180: CRLF lines, quoted where needed), one row per
 // student, a column per item and per criterion, then totals. A UTF-8 byte-order
-// mark makes spreadsheets read accented names correctly; cells that start like a
-// formula are escaped so opening the file never runs anything.
-import Papa from 'papaparse'
+// mark makes spreadsheets read accented names correctly. Written by the one CSV
+// writer (server/utils/csv.ts), so no cell runs as a formula when opened.
+import { writeCsv } from '../csv'
 import { CRITERION_LABELS } from '#shared/schemas/quiz'
 import type { StudentResult } from '#shared/types/quiz'
 import type { ItemColumn } from './results'
@@ -39,5 +39,5 @@ export function resultsCsv(columns: ItemColumn[], rows: StudentResult[]): string
     line.push(r.slips, round2(r.earned), round2(r.possible), round2(r.score * 100))
     return line
   })
-  return `\uFEFF${Papa.unparse({ fields: header, data }, { newline: '\r\n', escapeFormulae: true })}\r\n`
+  return writeCsv(header, data, { bom: true })
 }

@@ -1,0 +1,29 @@
+// Every state-changing API request (POST, PUT, PATCH, DELETE under /api) passes
+// here before its route: 403 unless it comes from this site (Origin or
+// Sec-Fetch-Site), 403 when a JSON route is sent a body that is not JSON, and
+// 413 as soon as a JSON body passes 1 MB. The rules are in server/utils/request-guard.ts.
+import type { H3Event } from 'h3'
+import { STATE_CHANGING, crossSiteProblem, declaresBody, isJsonContentType, isUploadRoute, readLimitedBody } from '~~/server/utils/request-guard'
+
+export default defineEventHandler(async (event: H3Event) => {
+  const method = event.method.toUpperCase()
+  if (!STATE_CHANGING.has(method) || !event.path.startsWith('/api/')) return
+  const headers = event.node.req.headers
+
+  const problem = crossSiteProblem({
+    origin: headers.origin,
+    secFetchSite: typeof headers['sec-fetch-site'] === 'string' ? headers['sec-fetch-site'] : undefined,
+    host: headers.host,
+    hasCookie: !!headers.cookie,
+    siteUrl: String(useRuntimeConfig(event).public.siteUrl || ''),
+  })
+  if (problem) throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: problem.message, data: { code: problem.code } })
+
+  if (isUploadRoute(method, event.path) || !declaresBody(event.node.req)) return
+  if (!isJsonContentType(headers['content-type'])) {
+    throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: 'Send the request body as JSON (Content-Type: application/json).', data: { code: 'json-required', fields: [{ path: '(body)', message: 'The body must be JSON.' }] } })
+  }
+  // Read (and count) the body here, once; readRawBody in the route then gets this buffer.
+  const body = await readLimitedBody(event)
+  ;(event as unknown as { _requestBody: unknown })._requestBody = body
+})
