@@ -266,7 +266,8 @@ function eyeMajorToGazeMajor(tokens: Tok[]): Tok[] {
   const firstGaze = tokens.findIndex(t => t.k === 'gaze')
   if (firstEye === -1 || firstGaze === -1 || firstGaze < firstEye) return tokens
   const eyeAt = tokens.flatMap((t, i) => (isEye(t) ? [i] : []))
-  interface Block { eye: Tok, lead: Tok[], byGaze: Array<{ gaze: Tok, toks: Tok[] }> }
+  type GazeTok = Extract<Tok, { k: 'gaze' }>
+  interface Block { eye: Tok, lead: Tok[], byGaze: Array<{ gaze: GazeTok, toks: Tok[] }> }
   const blocks: Block[] = []
   for (const [k, at] of eyeAt.entries()) {
     const body = tokens.slice(at + 1, eyeAt[k + 1] ?? tokens.length)
@@ -287,10 +288,10 @@ function eyeMajorToGazeMajor(tokens: Tok[]): Tok[] {
     if (tokens[skipSeps(eyeAt[k]! + 1)]?.k !== 'gaze' || content(b.lead)) return tokens
   }
   const sep = (text: string): Tok => ({ k: 'sep', and: false, text })
-  const gazes: Tok[] = []
+  const gazes: GazeTok[] = []
   for (const b of headed) {
     for (const g of b.byGaze) {
-      if (g.gaze.k === 'gaze' && !gazes.some(x => x.k === 'gaze' && x.v === g.gaze.v)) gazes.push(g.gaze)
+      if (!gazes.some(x => x.v === g.gaze.v)) gazes.push(g.gaze)
     }
   }
   const out: Tok[] = tokens.slice(0, firstEye)
@@ -298,7 +299,7 @@ function eyeMajorToGazeMajor(tokens: Tok[]): Tok[] {
     out.push(sep(';'), g, sep(':'))
     for (const b of blocks) {
       const toks = b.byGaze.length
-        ? b.byGaze.filter(x => x.gaze.k === 'gaze' && g.k === 'gaze' && x.gaze.v === g.v).flatMap(x => x.toks)
+        ? b.byGaze.filter(x => x.gaze.v === g.v).flatMap(x => x.toks)
         : b.lead
       const findings = toks.filter(t => t.k !== 'sep' && t.k !== 'colon')
       if (!content(findings)) continue
