@@ -97,7 +97,7 @@ export function compareWithDmr(c: Case, truth: FundusTruth): FundusComparison {
       : `from ${signed(t.torsion)} of the eye itself (on a normal angle of ${deg(t.normalAngle)})`
     explanation.push(`${e}: the fundus shows a disc–fovea angle of ${deg(t.angle)}, ${placeOf(e, t.angle)}, ${cause}; the double Maddox rod shows ${signed(f.reported[e])}.`)
   }
-  const sources = [FUNDUS_SOURCES.adaptation1979, FUNDUS_SOURCES.comparison2021]
+  const sources: string[] = [FUNDUS_SOURCES.adaptation1979, FUNDUS_SOURCES.comparison2021]
   if (underReports) {
     explanation.push(...underReportingLines(c, truth, objective))
     sources.push(FUNDUS_SOURCES.kang2020, FUNDUS_SOURCES.interEye1992)
