@@ -62,6 +62,8 @@ describe('starting a case', () => {
     expect(after.template).toBe(row.template_id.replace(/-standard$/, ''))
     expect(after.title).toBeTruthy()
     expect(after.attempts[0].truth.label).toBeTruthy()
+    // the attempt's own answer names the case the way the page heading will (issue 11)
+    expect(r.body.caseTitle).toBe(after.title)
   })
 
   it('"harder" and a difficulty choose the challenging template', async () => {
