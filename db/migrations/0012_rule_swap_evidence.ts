@@ -7,9 +7,9 @@
 // frozen copy of that rule, from the stored slips key, truth and recorded
 // directions. Frozen in time: imports no app code.
 //
-// The per-learner counts group by it, so 0007's covering index is rebuilt with the
-// column right after slip_set (the GROUP BY order), keeping that walk sort-free. A
-// small partial index serves a rule swap's examples.
+// 0007's per-learner pass over the slip sets is left as it was; the evidence is
+// counted in a second, small pass over a partial index that holds only the attempts
+// with evidence (a few per cent), which also serves a rule swap's examples.
 import type { Kysely } from 'kysely'
 import { sql } from 'kysely'
 
@@ -64,21 +64,14 @@ export async function up(db: Kysely<any>): Promise<void> {
     }
   }
 
-  await db.schema.dropIndex('attempts_rv_slip_set').execute()
-  await db.schema.createIndex('attempts_rv_slip_set').on('attempts')
-    .columns(['cohort_id', 'learner_id', 'slip_set', 'rule_swap_eye', 'kind', 'quiz_id', 'submitted_at', 'template_id', 'condition']).execute()
-  // a rule swap's examples: one learner's telling attempts, newest first (ties: the higher
-  // id, which an index keeps after its columns). Partial, so it holds only those few rows;
-  // the filters are checked on the rows themselves
+  // the per-learner evidence counts and a swap's examples: only the telling attempts
+  // (partial), by cohort, learner and eye, covering the review filters, so both walk a few rows
   await db.schema.createIndex('attempts_rv_rule_swap').on('attempts')
-    .columns(['learner_id', 'rule_swap_eye', 'submitted_at'])
+    .columns(['cohort_id', 'learner_id', 'rule_swap_eye', 'submitted_at', 'kind', 'quiz_id', 'template_id', 'condition'])
     .where(sql.ref('rule_swap_eye'), 'is not', null).execute()
 }
 
 export async function down(db: Kysely<any>): Promise<void> {
   await db.schema.dropIndex('attempts_rv_rule_swap').execute()
-  await db.schema.dropIndex('attempts_rv_slip_set').execute()
-  await db.schema.createIndex('attempts_rv_slip_set').on('attempts')
-    .columns(['cohort_id', 'learner_id', 'slip_set', 'kind', 'quiz_id', 'submitted_at', 'template_id', 'condition']).execute()
   await db.schema.alterTable('attempts').dropColumn('rule_swap_eye').execute()
 }

@@ -29,12 +29,12 @@ export function slipsOfSet(set: string): SlipLike[] {
 }
 
 /**
- * Adds `n` attempts that share one key (and one attempts.rule_swap_eye, migration
- * 0012) to a learner's counts: what countsFromHistory (shared/review/patterns.ts)
- * would add for each of them. tests/unit/review/sql.test.ts checks the two agree
- * on random histories.
+ * Adds `n` attempts that share one key to a learner's counts: what
+ * countsFromHistory (shared/review/patterns.ts) would add for each of them, but for
+ * the rule-swap evidence, which the SQL counts from attempts.rule_swap_eye (0012).
+ * tests/unit/review/sql.test.ts checks the two agree on random histories.
  */
-export function addSlipSet(c: LearnerCounts, set: string, n: number, ruleSwapEye: string | null = null): void {
+export function addSlipSet(c: LearnerCounts, set: string, n: number): void {
   const slips = slipsOfSet(set)
   c.attempts += n
   if (!slips.length) return
@@ -46,5 +46,4 @@ export function addSlipSet(c: LearnerCounts, set: string, n: number, ruleSwapEye
   if (reversed.has('RE') && reversed.has('LE')) c.reversed.both += n
   else if (reversed.has('RE')) c.reversed.reOnly += n
   else if (reversed.has('LE')) c.reversed.leOnly += n
-  if (ruleSwapEye === 'RE' || ruleSwapEye === 'LE') c.ruleSwap[ruleSwapEye] += n
 }

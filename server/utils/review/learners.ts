@@ -18,24 +18,34 @@ import type { ReviewScope } from './scope'
 /**
  * LearnerCounts for every learner with attempts in the view (the eye filter does
  * not apply: patterns compare the eyes), and the cohorts each learner's attempts
- * were in. One walk of attempts_rv_slip_set (0007, with rule_swap_eye from 0012) grouped in its own column order,
+ * were in. One walk of attempts_rv_slip_set (0007) grouped in its own column order,
  * so nothing is sorted (with a date range too: see dateByIndex); an attempt belongs to one cohort, so per-cohort groups add
  * up exactly. A few dozen distinct keys make a few thousand groups at 200,000 attempts.
  */
 export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, LearnerCounts>> {
   const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
-    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', 'attempts.rule_swap_eye']).execute()
+    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', eb.fn.countAll<number>().as('n')])
+    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set']).execute()
   const out = new Map<number, LearnerCounts>()
   for (const r of rows) {
     let c = out.get(r.learner_id)
     if (!c) out.set(r.learner_id, c = emptyCounts())
-    addSlipSet(c, r.slip_set, Number(r.n), r.rule_swap_eye)
+    addSlipSet(c, r.slip_set, Number(r.n))
     if (cohortsOf && r.cohort_id !== null) {
       const set = cohortsOf.get(r.learner_id) ?? new Set<number>()
       set.add(r.cohort_id)
       cohortsOf.set(r.learner_id, set)
     }
+  }
+  // the rule-swap evidence (0012): a second, small pass over the partial index that holds
+  // only the telling attempts, grouped in its own order (cohort, learner, eye)
+  const swaps = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
+    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
+    .where('attempts.rule_swap_eye', 'is not', null)
+    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye']).execute()
+  for (const r of swaps) {
+    const c = out.get(r.learner_id)
+    if (c && (r.rule_swap_eye === 'RE' || r.rule_swap_eye === 'LE')) c.ruleSwap[r.rule_swap_eye] += Number(r.n)
   }
   return out
 }
@@ -58,12 +68,12 @@ async function patternExamples(db: Kysely<Database>, f: ReviewFilters, scope: Re
     const parts = wanted.slice(from, from + EVIDENCE_CHUNK).map(({ id, cohorts, pattern }, i) => {
       if (pattern.code === 'left-right-rule-swapped') {
         // only the attempts that tell the swap from recording the image (attempts.rule_swap_eye,
-        // 0012), read from the partial index attempts_rv_rule_swap that holds just those
+        // 0012), newest first, read in order from the partial index attempts_rv_rule_swap
         const sub = applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, { ...scope, cohortIds: cohorts })
           .select([sql<number>`${from + i}`.as('k'), 'attempts.id as attempt_id', 'attempts.submitted_at as at'])
           .where('attempts.learner_id', '=', id)
           .where('attempts.rule_swap_eye', '=', pattern.eye!)
-          .orderBy('attempts.submitted_at', 'desc').orderBy('attempts.id', 'desc').limit(EXAMPLES)
+          .orderBy('attempts.submitted_at', 'desc').limit(EXAMPLES)
         return db.selectFrom(sub.as(`e${i}`)).select([`e${i}.k`, `e${i}.attempt_id`, `e${i}.at`])
       }
       // naming the learner's cohorts lets SQLite use attempt_slips_rv_learner, which leads with cohort_id

@@ -136,6 +136,8 @@ describe('migration 0012', () => {
     expect(stored).toEqual(expected)
     expect(stored.filter(e => e === 'RE').length).toBeGreaterThan(50)
     expect(stored.filter(e => e === 'LE').length).toBeGreaterThan(50)
+    // 0007's per-learner index is left as it was
+    expect((sqlite.prepare('select sql from sqlite_master where name = \'attempts_rv_slip_set\'').get() as { sql: string }).sql).not.toMatch(/rule_swap_eye/)
     const counts = await learnerCounts(db, reviewFilterQuery.parse({}), all)
     histories.forEach((h, i) => expect(counts.get(ids[i]!)).toEqual(countsFromHistory(h)))
 
@@ -143,14 +145,14 @@ describe('migration 0012', () => {
     expect(down.error).toBeUndefined()
     const columns = sqlite.prepare('select name from pragma_table_info(\'attempts\')').all() as { name: string }[]
     expect(columns.map(c => c.name)).not.toContain('rule_swap_eye')
-    expect((sqlite.prepare('select sql from sqlite_master where name = \'attempts_rv_slip_set\'').get() as { sql: string }).sql).not.toMatch(/rule_swap_eye/)
+    expect(sqlite.prepare('select name from sqlite_master where type = \'index\' and name = \'attempts_rv_rule_swap\'').get()).toBeUndefined()
   })
 })
 
 describe('query plans for who needs help', () => {
   const plan = (q: CompiledQuery) => (sqlite.prepare(`explain query plan ${q.sql}`).all(...q.parameters as unknown[]) as { detail: string }[]).map(r => r.detail)
 
-  it('counts per learner from attempts_rv_slip_set alone, grouped without a sort, for every scope and filter', async () => {
+  it('counts per learner from attempts_rv_slip_set, and the rule-swap evidence from the partial attempts_rv_rule_swap, each grouped without a sort, for every scope and filter', async () => {
     const db = open()
     await migrateToLatest(db)
     const { cohorts } = await people(db, 2)
@@ -161,10 +163,13 @@ describe('query plans for who needs help', () => {
     for (const [filters, scope] of views) {
       queries = []
       await learnerCounts(db, reviewFilterQuery.parse(filters), scope)
-      expect(queries).toHaveLength(1)
+      expect(queries).toHaveLength(2)
       const steps = plan(queries[0]!)
       expect(steps.join(' | '), JSON.stringify(filters)).toMatch(/^SEARCH attempts USING COVERING INDEX attempts_rv_slip_set \(cohort_id/)
       expect(steps.join(' | ')).not.toMatch(/TEMP B-TREE/)
+      const evidence = plan(queries[1]!).join(' | ')
+      expect(evidence, JSON.stringify(filters)).toMatch(/^SEARCH attempts USING COVERING INDEX attempts_rv_rule_swap \(cohort_id/)
+      expect(evidence).not.toMatch(/TEMP B-TREE/)
     }
   })
 
@@ -211,6 +216,6 @@ describe('query plans for who needs help', () => {
     // newest telling attempt first; the left-eye-only case is not an example
     expect(items[0]!.patterns[0]!.examples).toEqual([attemptIds[2], attemptIds[1], attemptIds[0]])
     const steps = plan(queries.at(-1)!).filter(s => s.startsWith('SEARCH') || s.startsWith('SCAN attempt'))
-    expect(steps).toEqual([expect.stringMatching(/^SEARCH attempts USING INDEX attempts_rv_rule_swap \(learner_id=\? AND rule_swap_eye=\?/)])
+    expect(steps).toEqual([expect.stringMatching(/^SEARCH attempts USING COVERING INDEX attempts_rv_rule_swap \(cohort_id=\? AND learner_id=\? AND rule_swap_eye=\?/)])
   })
 })
