@@ -185,6 +185,11 @@ export interface AttemptsTable {
   explanation_json: string | null
   /** 0007: the attempt's distinct slips as one sorted key (shared/review/slipSet.ts); '' when clean. */
   slip_set: string
+  /**
+   * 0012: the eye whose direction was reversed while the other eye (true torsion 1° or
+   * more) was recorded the right way — evidence of a rule swap (ruleSwapEvidence); else null.
+   */
+  rule_swap_eye: ColumnType<string | null, string | null | undefined, string | null>
 }
 
 /** One row per slip on an attempt, denormalised for fast aggregation. */

@@ -10,6 +10,8 @@ import { cappedPoints } from '#shared/engine/marking'
 
 import type { Eye, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
 
+import { ruleSwapEvidence } from '#shared/engine/slips'
+import type { RuleSwapAttempt } from '#shared/engine/slips'
 import { slipSetOf } from '#shared/review/slipSet'
 import type { AttemptResult } from '#shared/types/practice'
 import type { AttemptKind, AttemptRow, CaseRow, Database } from '~~/db/schema'
@@ -64,6 +66,17 @@ export function amountError(r: EyeRecord | undefined, truth: number): number | n
   return Math.round((a - Math.abs(truth)) * 10) / 10
 }
 
+/** The direction the graded section of a record gives each eye (null when that eye is not recorded). */
+export function recordedDirections(grade: Pick<AttemptGrade, 'parsed'>, gaze: Gaze): PerEye<string | null> {
+  const section = gradedSection(grade.parsed.sections, gaze)
+  return { RE: section.eyes.RE?.direction ?? null, LE: section.eyes.LE?.direction ?? null }
+}
+
+/** What the slip-pattern rules need from a graded attempt (rule-swap evidence included: shared/engine/slips.ts). */
+export function ruleSwapAttemptOf(grade: Pick<AttemptGrade, 'parsed' | 'slips' | 'truth'>, gaze: Gaze): RuleSwapAttempt {
+  return { slips: grade.slips, torsion: grade.truth.torsion, recorded: recordedDirections(grade, gaze) }
+}
+
 async function learnerCohort(db: Kysely<Database>, learnerId: number): Promise<number | null> {
   const row = await db.selectFrom('cohort_members')
     .innerJoin('users', 'users.id', 'cohort_members.user_id')
@@ -107,7 +120,7 @@ export async function recordAttempt(db: Kysely<Database>, input: RecordAttemptIn
   const cohortId = input.cohortId !== undefined ? input.cohortId : await learnerCohort(db, input.learnerId)
   const section = gradedSection(grade.parsed.sections, attempt.gaze)
   const perEye = <T>(f: (eye: Eye) => T): PerEye<T> => ({ RE: f('RE'), LE: f('LE') })
-  const recorded = perEye(e => section.eyes[e]?.direction ?? null)
+  const recorded = recordedDirections(grade, attempt.gaze)
   const errors = perEye(e => amountError(section.eyes[e], grade.truth.torsion[e]))
   const quizId = input.quizId !== undefined ? input.quizId : row.quiz_id
   const startedAt = input.startedAt ?? null
@@ -157,6 +170,8 @@ export async function recordAttempt(db: Kysely<Database>, input: RecordAttemptIn
       explanation_json: JSON.stringify(grade.explanation),
       // the same slips as the attempt_slips rows below, as one key for the per-learner counts
       slip_set: slipSetOf(grade.slips),
+      // a one-eye reversal that tells a rule swap from recording the image (migration 0012)
+      rule_swap_eye: ruleSwapEvidence({ slips: grade.slips, torsion: grade.truth.torsion, recorded }),
     }).returning('id').executeTakeFirstOrThrow()
     if (grade.slips.length) {
       await trx.insertInto('attempt_slips').values(grade.slips.map(s => ({

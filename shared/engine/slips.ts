@@ -105,28 +105,64 @@ export function slipExplanation(code: SlipCode, eye?: Eye): string {
 export const slipTitle = (code: SlipCode): string => SLIP_INFO[code].title
 export const isSlipCode = (v: unknown): v is SlipCode => typeof v === 'string' && (SLIP_CODES as readonly string[]).includes(v)
 
+/** A true torsion of at least this many degrees has a direction (domain.md §5.2, signed findings). */
+export const DIRECTION_FROM_DEGREES = 1
+
+/** What an attempt tells about the rule swap: its slips, and (to tell a swap from recording the image) its truth and record. */
+export interface RuleSwapAttempt {
+  slips: readonly Slip[]
+  /** Signed true torsion per eye in the tested gaze, degrees, + = excyclo (what the double Maddox rod shows). */
+  torsion?: Partial<Record<Eye, number>> | null
+  /** The direction the record gives each eye: 'excyclo', 'incyclo', 'none', or null when the eye is not recorded. */
+  recorded?: Partial<Record<Eye, string | null>> | null
+}
+
 /**
- * `left-right-rule-swapped` is a pattern over a learner's attempts: the direction is
- * reversed for one eye only, at least `minimum` times, and never for the other
- * eye in the same attempts. Returns the eye whose rule is being misapplied.
+ * The eye an attempt shows being read with the other eye's rule, or null. A
+ * direction reversed in one eye only can mean either habit: using one eye's rule on
+ * the other, or recording the image where only that eye is torted. Only an attempt
+ * where the OTHER eye had a true torsion of 1° or more and was recorded with the right
+ * direction tells them apart (someone recording the image would have reversed it too),
+ * so only such an attempt is evidence of a rule swap (domain.md §5.3).
+ */
+export function ruleSwapEvidence(a: RuleSwapAttempt): Eye | null {
+  const reversed = new Set(a.slips.filter(s => s.code === 'direction-reversed' && s.eye).map(s => s.eye!))
+  if (reversed.size !== 1 || !a.torsion || !a.recorded) return null
+  const eye = [...reversed][0]!
+  const other: Eye = eye === 'RE' ? 'LE' : 'RE'
+  const t = a.torsion[other]
+  if (typeof t !== 'number' || Math.abs(t) < DIRECTION_FROM_DEGREES) return null
+  return a.recorded[other] === (t > 0 ? 'excyclo' : 'incyclo') ? eye : null
+}
+
+/**
+ * `left-right-rule-swapped` is a pattern over a learner's attempts: at least
+ * `minimum` attempts that are evidence for one eye (ruleSwapEvidence: that eye
+ * reversed while the other eye's true torsion was recorded the right way), and no
+ * attempt reversing the other eye on its own. Returns the eye whose rule is being
+ * misapplied. One-eye reversals that cannot tell the habits apart never make it:
+ * they count towards recording the image (shared/review/patterns.ts).
  */
 export function findRuleSwap(
-  attempts: ReadonlyArray<{ slips: readonly Slip[] }>,
+  attempts: ReadonlyArray<RuleSwapAttempt>,
   minimum = 2,
 ): Slip | null {
-  const counts: Record<Eye, number> = { RE: 0, LE: 0 }
+  const evidence: Record<Eye, number> = { RE: 0, LE: 0 }
+  const oneEye: Record<Eye, number> = { RE: 0, LE: 0 }
   for (const a of attempts) {
     const reversed = new Set(a.slips.filter(s => s.code === 'direction-reversed' && s.eye).map(s => s.eye!))
-    if (reversed.size === 1) counts[[...reversed][0]!] += 1
+    if (reversed.size === 1) oneEye[[...reversed][0]!] += 1
+    const e = ruleSwapEvidence(a)
+    if (e) evidence[e] += 1
   }
-  const candidates = (['RE', 'LE'] as const).filter(e => counts[e] >= minimum)
+  const candidates = (['RE', 'LE'] as const).filter(e => evidence[e] >= minimum)
   if (candidates.length !== 1) return null
   const eye = candidates[0]!
   const other = eye === 'RE' ? 'LE' : 'RE'
-  if (counts[other] > 0) return null
+  if (oneEye[other] > 0) return null
   return {
     code: 'left-right-rule-swapped',
     eye,
-    detail: `direction reversed for the ${eye === 'RE' ? 'right' : 'left'} eye only in ${counts[eye]} attempts`,
+    detail: `direction reversed for the ${eye === 'RE' ? 'right' : 'left'} eye only in ${evidence[eye]} attempts where the ${other === 'RE' ? 'right' : 'left'} eye's torsion was recorded the right way`,
   }
 }

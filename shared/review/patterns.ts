@@ -3,7 +3,8 @@
 // (server/utils/review/learners.ts) or from a plain history here; the same
 // rules then decide which patterns a learner shows. Thresholds are Cyclodial's
 // own teaching choices, not published figures.
-import type { Slip, SlipCode } from '#shared/engine/slips'
+import type { RuleSwapAttempt, SlipCode } from '#shared/engine/slips'
+import { ruleSwapEvidence } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 
 export const PATTERN_CODES = [
@@ -26,13 +27,13 @@ export const MEASURING_SLIPS: readonly SlipCode[] = ['not-parallel']
 
 export const PATTERN_INFO: Record<PatternCode, { title: string, summary: string, weight: number }> = {
   'image-recorded': {
-    title: 'Reverses the direction in both eyes',
-    summary: 'Excyclo and incyclo come out the wrong way round for either eye: most likely recording the tilt of the image, not the position of the eye.',
+    title: 'Reverses the direction (records the image)',
+    summary: 'Excyclo and incyclo come out the wrong way round: most likely recording the tilt of the image, not the position of the eye. A reversal on a case where only one eye is torted counts here: it cannot tell this habit from using one eye\'s rule on the other.',
     weight: 10,
   },
   'left-right-rule-swapped': {
     title: 'Reverses the direction in one eye only',
-    summary: 'The direction is wrong for one eye and right for the other: the right eye\'s reading rule used on the left eye, or the reverse.',
+    summary: 'The direction is wrong for one eye while the other eye\'s torsion is recorded the right way: the right eye\'s reading rule used on the left eye, or the reverse.',
     weight: 10,
   },
   'dial-value-as-amount': {
@@ -75,6 +76,12 @@ export interface LearnerCounts {
   recordingAttempts: number
   /** Attempts whose direction was reversed in the right eye only, the left only, or both. */
   reversed: { reOnly: number, leOnly: number, both: number }
+  /**
+   * One-eye reversals that tell a rule swap from recording the image: that eye
+   * reversed while the other eye, torted by 1° or more, was recorded the right way
+   * (ruleSwapEvidence; stored per attempt as attempts.rule_swap_eye, migration 0012).
+   */
+  ruleSwap: { RE: number, LE: number }
 }
 
 export interface FoundPattern {
@@ -87,11 +94,11 @@ export interface FoundPattern {
 }
 
 export function emptyCounts(): LearnerCounts {
-  return { attempts: 0, slipAttempts: 0, byCode: {}, recordingAttempts: 0, reversed: { reOnly: 0, leOnly: 0, both: 0 } }
+  return { attempts: 0, slipAttempts: 0, byCode: {}, recordingAttempts: 0, reversed: { reOnly: 0, leOnly: 0, both: 0 }, ruleSwap: { RE: 0, LE: 0 } }
 }
 
 /** The counts for a plain history (what the SQL computes for stored attempts). */
-export function countsFromHistory(history: ReadonlyArray<{ slips: readonly Slip[] }>): LearnerCounts {
+export function countsFromHistory(history: ReadonlyArray<RuleSwapAttempt>): LearnerCounts {
   const c = emptyCounts()
   for (const a of history) {
     c.attempts += 1
@@ -103,18 +110,20 @@ export function countsFromHistory(history: ReadonlyArray<{ slips: readonly Slip[
     if (rev.has('RE') && rev.has('LE')) c.reversed.both += 1
     else if (rev.has('RE')) c.reversed.reOnly += 1
     else if (rev.has('LE')) c.reversed.leOnly += 1
+    const swapped = ruleSwapEvidence(a)
+    if (swapped) c.ruleSwap[swapped] += 1
   }
   return c
 }
 
 /**
- * findRuleSwap (shared/engine/slips.ts) restated on counts: one eye reversed on
- * its own at least `minimum` times, and the other eye never reversed on its own.
- * Attempts that reverse both eyes count for neither.
+ * findRuleSwap (shared/engine/slips.ts) restated on counts: at least `minimum`
+ * attempts that tell a swap on one eye from recording the image, and the other eye
+ * never reversed on its own. Attempts that reverse both eyes count for neither.
  */
-export function ruleSwapEye(reversed: LearnerCounts['reversed'], minimum = PATTERN_MINIMUM): Eye | null {
-  if (reversed.reOnly >= minimum && reversed.leOnly === 0) return 'RE'
-  if (reversed.leOnly >= minimum && reversed.reOnly === 0) return 'LE'
+export function ruleSwapEye(c: Pick<LearnerCounts, 'reversed' | 'ruleSwap'>, minimum = PATTERN_MINIMUM): Eye | null {
+  if (c.ruleSwap.RE >= minimum && c.reversed.leOnly === 0) return 'RE'
+  if (c.ruleSwap.LE >= minimum && c.reversed.reOnly === 0) return 'LE'
   return null
 }
 
@@ -125,13 +134,12 @@ const habit = (n: number, of: number): boolean => n >= PATTERN_MINIMUM && share(
 export function detectPatterns(c: LearnerCounts): FoundPattern[] {
   const found: FoundPattern[] = []
   const of = c.attempts
-  const swap = ruleSwapEye(c.reversed)
+  const swap = ruleSwapEye(c)
   const { reOnly, leOnly, both } = c.reversed
   const reversedAttempts = reOnly + leOnly + both
-  if (swap) found.push({ code: 'left-right-rule-swapped', eye: swap, count: swap === 'RE' ? reOnly : leOnly, of })
-  else if (reOnly + both > 0 && leOnly + both > 0 && habit(reversedAttempts, of)) {
-    found.push({ code: 'image-recorded', count: reversedAttempts, of })
-  }
+  if (swap) found.push({ code: 'left-right-rule-swapped', eye: swap, count: c.ruleSwap[swap], of })
+  // every other reversal, one-eye ones that cannot tell a swap apart included, is recording the image
+  else if (habit(reversedAttempts, of)) found.push({ code: 'image-recorded', count: reversedAttempts, of })
   const dial = c.byCode['dial-value-as-amount'] ?? 0
   if (habit(dial, of)) found.push({ code: 'dial-value-as-amount', count: dial, of })
   const measuring = MEASURING_SLIPS.reduce((n, code) => Math.max(n, c.byCode[code] ?? 0), 0)

@@ -30,7 +30,8 @@ export function slipsOfSet(set: string): SlipLike[] {
 
 /**
  * Adds `n` attempts that share one key to a learner's counts: what
- * countsFromHistory (shared/review/patterns.ts) would add for each of them.
+ * countsFromHistory (shared/review/patterns.ts) would add for each of them, but for
+ * the rule-swap evidence, which the SQL counts from attempts.rule_swap_eye (0012).
  * tests/unit/review/sql.test.ts checks the two agree on random histories.
  */
 export function addSlipSet(c: LearnerCounts, set: string, n: number): void {

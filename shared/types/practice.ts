@@ -61,6 +61,9 @@ export interface InterpretationView {
   explanation: string[]
 }
 
+/** A practice attempt's result: the case's title too, now that the attempt reveals it (null only for a case that stays unnamed). */
+export type PracticeAttemptResult = AttemptResult & { caseTitle: string | null }
+
 export interface AttemptResult {
   attemptId: number
   readAs: string

@@ -57,6 +57,8 @@ export interface LearnerRow {
   attempts: number
   slipAttempts: number
   reversed: { reOnly: number, leOnly: number, both: number }
+  /** One-eye reversals (by the reversed eye) whose other eye was torted and recorded rightly: the only evidence of a rule swap. */
+  ruleSwap: { RE: number, LE: number }
   patterns: PatternEvidence[]
   score: number
 }

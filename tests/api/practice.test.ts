@@ -63,6 +63,8 @@ describe('starting a case', () => {
     expect(after.template).toBe(row.template_id.replace(/-standard$/, ''))
     expect(after.title).toBeTruthy()
     expect(after.attempts[0].truth.label).toBeTruthy()
+    // the attempt's own answer names the case the way the page heading will (issue 11)
+    expect(r.body.caseTitle).toBe(after.title)
   })
 
   it('"harder" and a difficulty choose the challenging template', async () => {
@@ -174,7 +176,8 @@ describe('attempts', () => {
 
     const replay = await student.get(`/api/practice/attempts/${two.body.attemptId}`)
     expect(replay.status).toBe(200)
-    const { attemptId: _, ...result } = two.body
+    // (caseTitle belongs to the case, not the stored result: the replay names it in case.title)
+    const { attemptId: _, caseTitle: _title, ...result } = two.body
     expect(replay.body.result).toEqual(result)
     expect(replay.body.attempt).toMatchObject({ gaze: 'down', distance: 'near', prisms: [{ eye: 'LE', power: 4, base: 'up' }], lights: 'dim', record: correctRecord(patient, 'down'), trial: null })
     expect(replay.body.case).toMatchObject({ id: c.id, mode: 'learner-turns', title: 'Bilateral superior oblique palsy (standard)' })

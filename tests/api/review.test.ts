@@ -160,7 +160,9 @@ describe('aggregates against hand-computed counts', () => {
     expect(new Date('2026-03-02T00:00:00Z').getUTCDay()).toBe(1)
 
     const who = await lecturer.get(`/api/review/learners?cohortId=${cohort}`)
-    expect(who.body.items.map((l: any) => [l.learner.name, l.patterns.map((p: any) => `${p.code}:${p.eye ?? ''}`)])).toEqual([['Counting Learner 1', ['left-right-rule-swapped:LE']]])
+    // learner 1 reversed the left eye on cases where the right eye had no direction recorded: that cannot
+    // tell a rule swap from recording the image, so it counts as recording the image (issue 11 changes this rule)
+    expect(who.body.items.map((l: any) => [l.learner.name, l.patterns.map((p: any) => `${p.code}:${p.eye ?? ''}`)])).toEqual([['Counting Learner 1', ['image-recorded:']]])
     expect(who.body.learnersSeen).toBe(2)
   })
 
@@ -190,6 +192,59 @@ describe('aggregates against hand-computed counts', () => {
     expect(attempts).not.toMatch(/,"?=HYPERLINK/)
     const directions = String((await lecturer.get(`/api/review/export.csv?table=directions&cohortId=${cohort}&eye=LE`)).body).trim().split('\r\n')
     expect(directions).toEqual(['eye,true direction,recorded excyclo,recorded incyclo,recorded no torsion,direction not stated', 'LE,excyclo,0,1,0,0', 'LE,incyclo,1,0,0,0'])
+  })
+})
+
+describe('rule swap or recording the image (issue 11)', () => {
+  let cohort: number
+  const learner: Record<'image' | 'swap', number> = { image: 0, swap: 0 }
+  beforeAll(async () => {
+    const now = new Date().toISOString()
+    cohort = (await write.insertInto('cohorts').values({ name: 'Review swap cohort', created_at: now, updated_at: now }).returning('id').executeTakeFirstOrThrow()).id
+    for (const kind of ['image', 'swap'] as const) {
+      const { id: uid } = await write.insertInto('users').values({ email: `swap-${kind}@cyclodial.test`, name: `Swap Test ${kind}`, role: 'student', password_hash: 'x', created_at: now, updated_at: now }).returning('id').executeTakeFirstOrThrow()
+      await write.insertInto('cohort_members').values({ cohort_id: cohort, user_id: uid, created_at: now }).execute()
+      learner[kind] = uid
+    }
+    const at = (d: number) => `2026-04-${String(d).padStart(2, '0')}T10:00:00.000Z`
+    await insertAttempts(write, [
+      // records the image on right-eye palsies (left eye healthy, under 1°): the right eye comes out reversed each time
+      ...[1, 2, 3, 4].map(d => ({ learnerId: learner.image, cohortId: cohort, submittedAt: at(d), slips: [{ code: 'direction-reversed', eye: 'RE' as const }], torsion: { RE: 6, LE: 0.6 }, reTrue: 'excyclo', reRecorded: 'incyclo', leTrue: 'excyclo', leRecorded: 'none' })),
+      // uses the right eye's rule on the left on cases with both eyes torted: the right eye stays right
+      ...[1, 2, 3].map(d => ({ learnerId: learner.swap, cohortId: cohort, submittedAt: at(d), slips: [{ code: 'direction-reversed', eye: 'LE' as const }], torsion: { RE: 7, LE: 5 }, reTrue: 'excyclo', reRecorded: 'excyclo', leTrue: 'excyclo', leRecorded: 'incyclo' })),
+      { learnerId: learner.swap, cohortId: cohort, submittedAt: at(4), slips: [], torsion: { RE: 1.2, LE: 0.4 }, reTrue: 'excyclo', reRecorded: 'excyclo', leTrue: 'none', leRecorded: 'none' },
+    ])
+  })
+
+  it('labels a learner who records the image on one-eye cases as recording the image, and a rule swap on both-eye cases as a swap', async () => {
+    const who = await lecturer.get(`/api/review/learners?cohortId=${cohort}`)
+    expect(who.status).toBe(200)
+    const byId = Object.fromEntries(who.body.items.map((l: any) => [l.learner.id, l]))
+    expect(byId[learner.image].patterns.map((p: any) => p.code)).toEqual(['image-recorded'])
+    expect(byId[learner.image].ruleSwap).toEqual({ RE: 0, LE: 0 })
+    expect(byId[learner.swap].patterns).toEqual([expect.objectContaining({ code: 'left-right-rule-swapped', eye: 'LE', count: 3, of: 4 })])
+    expect(byId[learner.swap].ruleSwap).toEqual({ RE: 0, LE: 3 })
+    // the examples are the telling attempts, and each stored its evidence (0012)
+    for (const a of byId[learner.swap].patterns[0].examples) {
+      expect(read.get<{ rule_swap_eye: string }>('SELECT rule_swap_eye FROM attempts WHERE id = ?', a)!.rule_swap_eye).toBe('LE')
+    }
+    expect(read.count('SELECT count(*) AS n FROM attempts WHERE learner_id = ? AND rule_swap_eye IS NOT NULL', learner.image)).toBe(0)
+  })
+
+  it('stores the evidence through recordAttempt: a practice attempt reversing one eye beside a rightly recorded torted fellow', async () => {
+    const student = await signedIn(baseURL, DEMO.student)
+    const c = (await student.post('/api/practice', { template: 'bilateral-so-palsy', seed: 'swap-evidence' })).body
+    const t = generateCase('bilateral-so-palsy-standard', 'swap-evidence').gazes.primary.reported
+    const word = (v: number, flip = false) => ((v > 0) !== flip ? 'excyclotorsion' : 'incyclotorsion')
+    const record = `DMR, near, primary position: RE ${Math.round(Math.abs(t.RE))}° ${word(t.RE)}, LE ${Math.round(Math.abs(t.LE))}° ${word(t.LE, true)}.`
+    const r = await student.post(`/api/practice/${c.id}/attempts`, { gaze: 'primary', distance: 'near', readings: c.presentation.positions.primary.horizontalAt, record })
+    expect(r.status, JSON.stringify(r.body)).toBe(201)
+    expect(r.body.slips).toContainEqual(expect.objectContaining({ code: 'direction-reversed', eye: 'LE' }))
+    expect(read.get<{ rule_swap_eye: string | null }>('SELECT rule_swap_eye FROM attempts WHERE id = ?', r.body.attemptId)!.rule_swap_eye).toBe('LE')
+    // both reversed: recording the image, no evidence
+    const both = `DMR, near, primary position: RE ${Math.round(Math.abs(t.RE))}° ${word(t.RE, true)}, LE ${Math.round(Math.abs(t.LE))}° ${word(t.LE, true)}.`
+    const r2 = await student.post(`/api/practice/${c.id}/attempts`, { gaze: 'primary', distance: 'near', readings: c.presentation.positions.primary.horizontalAt, record: both })
+    expect(read.get<{ rule_swap_eye: string | null }>('SELECT rule_swap_eye FROM attempts WHERE id = ?', r2.body.attemptId)!.rule_swap_eye).toBeNull()
   })
 })
 

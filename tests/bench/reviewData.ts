@@ -7,6 +7,7 @@ import type Database from 'better-sqlite3'
 import { makeRng, pick } from '#shared/engine/random'
 import type { Rng } from '#shared/engine/random'
 import { EYES } from '#shared/engine/types'
+import { ruleSwapEvidence } from '#shared/engine/slips'
 import { slipSetOf } from '#shared/review/slipSet'
 import type { Profile } from '../../db/seed/learnerModel'
 import { SIMULATION_TEMPLATES, simulateAttempt } from '../../db/seed/learnerModel'
@@ -34,6 +35,8 @@ export interface PooledAttempt {
   slips: { code: string, eye: string | null }[]
   /** attempts.slip_set, as recordAttempt writes it (0007). */
   slipSet: string
+  /** attempts.rule_swap_eye, as recordAttempt writes it (0012). */
+  ruleSwapEye: string | null
   dirs: { reTrue: string | null, reRec: string | null, leTrue: string | null, leRec: string | null }
   errors: { re: number | null, le: number | null }
 }
@@ -68,6 +71,7 @@ export function gradedPool(profile: Profile, size: number): PooledAttempt[] {
       possible: g.points.possible,
       slips: g.slips.map(s => ({ code: s.code, eye: s.eye ?? null })),
       slipSet: slipSetOf(g.slips),
+      ruleSwapEye: ruleSwapEvidence({ slips: g.slips, torsion: g.truth.torsion, recorded: { RE: recordedDir('RE'), LE: recordedDir('LE') } }),
       dirs: { reTrue: re ?? null, reRec: recordedDir('RE'), leTrue: le ?? null, leRec: recordedDir('LE') },
       errors: { re: err('RE'), le: err('LE') },
     }
@@ -111,8 +115,8 @@ export function writeBulk(sqlite: Database.Database, plan: BulkPlan) {
 
   const attemptStmt = sqlite.prepare(`insert into attempts (case_id, learner_id, cohort_id, kind, quiz_id, template_id, condition, difficulty, mode, seed, generator_version,
     gaze, distance, readings_json, prisms_json, lights, record_text, parsed_json, marks_json, score, points_earned, points_possible, slips_json, truth_json,
-    re_true_direction, re_recorded_direction, le_true_direction, le_recorded_direction, re_amount_error, le_amount_error, submitted_at, slip_set)
-    values (?, ?, ?, ?, ?, ?, ?, 'standard', 'learner-turns', 'bench', 1, ?, 'near', ?, '[]', 'dim', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`)
+    re_true_direction, re_recorded_direction, le_true_direction, le_recorded_direction, re_amount_error, le_amount_error, submitted_at, slip_set, rule_swap_eye)
+    values (?, ?, ?, ?, ?, ?, ?, 'standard', 'learner-turns', 'bench', 1, ?, 'near', ?, '[]', 'dim', ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)`)
   const slipStmt = sqlite.prepare('insert into attempt_slips (attempt_id, learner_id, cohort_id, kind, quiz_id, template_id, condition, code, eye, created_at) values (?, ?, ?, ?, ?, ?, ?, ?, ?, ?)')
   const span = plan.weeks * 7 * 86_400_000
   let slipRows = 0
@@ -127,7 +131,7 @@ export function writeBulk(sqlite: Database.Database, plan: BulkPlan) {
         const at = new Date(plan.end.getTime() - Math.floor(rng() * span)).toISOString()
         const kind = quiz ? 'quiz' : 'practice'
         const id = Number(attemptStmt.run(caseId, l.id, l.cohort, kind, quizId, a.templateId, a.condition, a.gaze, a.readings, a.record, a.parsed, a.marks,
-          a.score, a.earned, a.possible, a.slipsJson, a.truth, a.dirs.reTrue, a.dirs.reRec, a.dirs.leTrue, a.dirs.leRec, a.errors.re, a.errors.le, at, a.slipSet).lastInsertRowid)
+          a.score, a.earned, a.possible, a.slipsJson, a.truth, a.dirs.reTrue, a.dirs.reRec, a.dirs.leTrue, a.dirs.leRec, a.errors.re, a.errors.le, at, a.slipSet, a.ruleSwapEye).lastInsertRowid)
         for (const s of a.slips) {
           slipStmt.run(id, l.id, l.cohort, kind, quizId, a.templateId, a.condition, s.code, s.eye, at)
           slipRows++

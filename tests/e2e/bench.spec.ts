@@ -292,6 +292,26 @@ test.describe('the bench', () => {
     await expect(page.getByTestId('score')).toHaveText(`${Math.round(result.score * 100)}%`)
   })
 
+  test('a hidden case\'s heading names the condition once the attempt is in (issue 11)', async ({ page }) => {
+    await signIn(page, STUDENT)
+    const res = await page.request.post('/api/practice', { data: { template: 'any' } })
+    expect(res.status()).toBe(201)
+    const { id } = await res.json()
+    await page.goto(`/practice/${id}`)
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('A patient to assess')
+    await expect(page.getByText('the condition is revealed after you submit')).toBeVisible()
+    await page.getByLabel('Your record').fill('DMR, near, primary position: RE no torsion, LE no torsion.')
+    const submitted = page.waitForResponse(r => r.url().includes('/attempts') && r.request().method() === 'POST')
+    await page.getByRole('button', { name: 'Submit record' }).click()
+    const { caseTitle } = await (await submitted).json()
+    expect(caseTitle).toBeTruthy()
+    // at once, without a reload, and the same after one
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText(caseTitle)
+    await expect(page.getByText('the condition is revealed after you submit')).toHaveCount(0)
+    await page.reload()
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText(caseTitle)
+  })
+
   test('the picker opens a case and the history lists the attempt', async ({ page }) => {
     await signIn(page, STUDENT)
     await page.getByRole('link', { name: 'Practice', exact: true }).first().click()

@@ -3,6 +3,8 @@
 // stores (migration 0002); JSON fields default to small valid documents.
 import type { Insertable, Kysely } from 'kysely'
 import type { AttemptsTable, Database } from '../../db/schema'
+import { ruleSwapEvidence } from '../../shared/engine/slips'
+import type { Slip } from '../../shared/engine/slips'
 import { slipSetOf } from '../../shared/review/slipSet'
 
 export interface RowSlip { code: string, eye?: 'RE' | 'LE' }
@@ -22,6 +24,8 @@ export interface RowAttempt {
   leRecorded?: string | null
   reError?: number | null
   leError?: number | null
+  /** The true signed torsion per eye (truth_json.torsion); with the recorded directions it decides rule_swap_eye (0012). */
+  torsion?: { RE: number, LE: number }
   score?: number
   record?: string
   /** Extra columns (realistic JSON in the benchmark). */
@@ -71,7 +75,7 @@ export function attemptValues(a: RowAttempt, caseId: number): Insertable<Attempt
     points_earned: 5,
     points_possible: 10,
     slips_json: JSON.stringify(a.slips),
-    truth_json: '{}',
+    truth_json: a.torsion ? JSON.stringify({ torsion: a.torsion }) : '{}',
     re_true_direction: a.reTrue ?? null,
     re_recorded_direction: a.reRecorded ?? null,
     le_true_direction: a.leTrue ?? null,
@@ -81,6 +85,8 @@ export function attemptValues(a: RowAttempt, caseId: number): Insertable<Attempt
     submitted_at: a.submittedAt,
     // what recordAttempt stores beside the slip rows (migration 0007)
     slip_set: slipSetOf(a.slips),
+    // what recordAttempt stores for the rule swap (migration 0012)
+    rule_swap_eye: ruleSwapEvidence({ slips: a.slips as Slip[], torsion: a.torsion, recorded: { RE: a.reRecorded ?? null, LE: a.leRecorded ?? null } }),
     ...a.extra,
   }
 }

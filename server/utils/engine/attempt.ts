@@ -12,6 +12,7 @@ import { levelReadings, patientSetsRods } from './patient'
 import { horizontalAtFor } from './presentation'
 import type { InterpretationResult } from './threeStep'
 import { gradeInterpretation } from './threeStep'
+import { fundusPointer } from '../fundus/compare'
 import type { Case, Condition } from './types'
 
 export interface AttemptInput {
@@ -110,7 +111,7 @@ export function gradeAttempt(c: Case, a: AttemptInput, ctx: AttemptContext): Att
   if (c.response.behaviours.includes('under-reports')) {
     const f = c.gazes[a.gaze]
     notes.push(
-      `This patient adapted long ago: the eyes are actually RE ${f.torsion.RE.toFixed(1)}°, LE ${f.torsion.LE.toFixed(1)}° (positive = excyclo), but the double Maddox rod shows little. A fundus photograph (disc–fovea angle) shows the torsion.`,
+      `This patient adapted long ago: the eyes are actually RE ${f.torsion.RE.toFixed(1)}°, LE ${f.torsion.LE.toFixed(1)}° (positive = excyclo), but the double Maddox rod shows little. ${fundusPointer(c)}`,
     )
   }
   notes.push('Repeat readings vary by a few degrees; between visits a change under 5° may not be real.')

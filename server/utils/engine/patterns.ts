@@ -1,6 +1,7 @@
 // Building blocks of a case: how vertical deviation and torsion vary with the
 // position of gaze and head tilt for a weak muscle, and a normal eye's torsion.
 
+import { HEALTHY_SUBJECTIVE_TORSION } from '#shared/engine/fundus/normals'
 import { clamp, normal, uniform } from '#shared/engine/random'
 import type { Rng } from '#shared/engine/random'
 import type { Gaze, Muscle, Side } from '#shared/engine/types'
@@ -27,7 +28,8 @@ export const byGaze = (f: (g: Gaze) => number): GazeNumbers =>
  * Torsion of an eye in the normal range: about 1° excyclo (Flodin et al., Acta
  * Ophthalmol 2020), kept within −0.5…2° so "both eyes within about ±2°" holds.
  */
-export const normalEyeTorsion = (rng: Rng): number => clamp(normal(rng, 1, 0.4), -0.5, 2)
+export const normalEyeTorsion = (rng: Rng): number =>
+  clamp(normal(rng, 1, 0.4), HEALTHY_SUBJECTIVE_TORSION.low, HEALTHY_SUBJECTIVE_TORSION.high)
 
 /** How strongly a weak muscle's vertical effect varies, drawn once per palsy. */
 export interface PalsyShape {

@@ -37,6 +37,16 @@ export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scop
       cohortsOf.set(r.learner_id, set)
     }
   }
+  // the rule-swap evidence (0012): a second, small pass over the partial index that holds
+  // only the telling attempts, grouped in its own order (cohort, learner, eye)
+  const swaps = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
+    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
+    .where('attempts.rule_swap_eye', 'is not', null)
+    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye']).execute()
+  for (const r of swaps) {
+    const c = out.get(r.learner_id)
+    if (c && (r.rule_swap_eye === 'RE' || r.rule_swap_eye === 'LE')) c.ruleSwap[r.rule_swap_eye] += Number(r.n)
+  }
   return out
 }
 
@@ -56,12 +66,21 @@ async function patternExamples(db: Kysely<Database>, f: ReviewFilters, scope: Re
   const found: { k: number, attempt_id: number, at: string }[] = []
   for (let from = 0; from < wanted.length; from += EVIDENCE_CHUNK) {
     const parts = wanted.slice(from, from + EVIDENCE_CHUNK).map(({ id, cohorts, pattern }, i) => {
+      if (pattern.code === 'left-right-rule-swapped') {
+        // only the attempts that tell the swap from recording the image (attempts.rule_swap_eye,
+        // 0012), newest first, read in order from the partial index attempts_rv_rule_swap
+        const sub = applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, { ...scope, cohortIds: cohorts })
+          .select([sql<number>`${from + i}`.as('k'), 'attempts.id as attempt_id', 'attempts.submitted_at as at'])
+          .where('attempts.learner_id', '=', id)
+          .where('attempts.rule_swap_eye', '=', pattern.eye!)
+          .orderBy('attempts.submitted_at', 'desc').limit(EXAMPLES)
+        return db.selectFrom(sub.as(`e${i}`)).select([`e${i}.k`, `e${i}.attempt_id`, `e${i}.at`])
+      }
       // naming the learner's cohorts lets SQLite use attempt_slips_rv_learner, which leads with cohort_id
-      let q = applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', { ...f, eye: undefined }, { ...scope, cohortIds: cohorts })
+      const q = applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', { ...f, eye: undefined }, { ...scope, cohortIds: cohorts })
         .select(eb => [sql<number>`${from + i}`.as('k'), 'attempt_slips.attempt_id', eb.fn.max('attempt_slips.created_at').as('at')])
         .where('attempt_slips.learner_id', '=', id)
         .where('attempt_slips.code', 'in', [...focusSlips(pattern.code)])
-      if (pattern.code === 'left-right-rule-swapped') q = q.where('attempt_slips.eye', '=', pattern.eye!)
       // an attempt ranks by its newest matching slip (ties: the higher id), as when every slip was read newest first
       const sub = q.groupBy('attempt_slips.attempt_id').orderBy('at', 'desc').orderBy('attempt_slips.attempt_id', 'desc').limit(EXAMPLES)
       return db.selectFrom(sub.as(`e${i}`)).select([`e${i}.k`, `e${i}.attempt_id`, `e${i}.at`])
@@ -104,6 +123,7 @@ export async function needsHelp(db: Kysely<Database>, f: ReviewFilters, scope: R
     attempts: c.attempts,
     slipAttempts: c.slipAttempts,
     reversed: c.reversed,
+    ruleSwap: c.ruleSwap,
     score,
     patterns: patterns.map(p => ({
       code: p.code,

@@ -11,6 +11,9 @@ export const FUNDUS_SOURCES = {
   method2013: 'Korean J Ophthalmol 2013 (clinical-facts R45) — disc–fovea angle method: tan α = vertical offset / horizontal offset',
   adaptation1979: 'von Noorden, Ophthalmology 1979;86:1451-61 — long-standing palsies: the eye stays torted while sensory adaptation removes the subjective torsion',
   comparison2021: 'Liebermann et al., Am J Ophthalmol 2021;224:332-42 — fundus photographs and the double Maddox rod often disagree in the same patient',
+  kang2020: 'Kang et al., PLoS One 2020 — unilateral superior oblique palsy: disc–fovea angle 12.19 ± 1.69° in the paretic eye against 6.71 ± 1.09° in the fellow eye',
+  interEye1992: 'Madigan & Katz, J Pediatr Ophthalmol Strabismus 1992;29(3):171-4 — a difference of more than 4° between the two eyes\' disc–fovea angles is probably abnormal',
+  flodin2020: 'Flodin et al., Acta Ophthalmol 2020;98:177-81 — normal subjective torsion on the double Maddox rod is about 1° excyclo',
   range: 'Cyclodial normal range: mean ± 2 SD of the 2005 mass-screening figures (derived)',
 } as const
 
@@ -46,6 +49,22 @@ export function normalRange(eye: Eye): NormalRange {
 }
 
 export const NORMAL_RANGES: PerEye<NormalRange> = { RE: normalRange('RE'), LE: normalRange('LE') }
+
+/**
+ * Torsion a healthy eye shows on the double Maddox rod: about 1° excyclo (Flodin et
+ * al., Acta Ophthalmol 2020;98:177-81). Cyclodial's healthy eyes lie within −0.5°
+ * to 2° (domain.md §4: "both eyes within about ±2°"). It is what the patient
+ * perceives, not a rotation of the eye, so from fundus version 2 an eye whose
+ * torsion lies in this band is drawn with its normal disc–fovea angle, unturned.
+ */
+export const HEALTHY_SUBJECTIVE_TORSION = { low: -0.5, high: 2 } as const
+
+/** Whether a signed torsion (+ = excyclo) is within what a healthy eye reports. */
+export const isHealthySubjectiveTorsion = (t: number): boolean =>
+  t >= HEALTHY_SUBJECTIVE_TORSION.low && t <= HEALTHY_SUBJECTIVE_TORSION.high
+
+/** More than this difference between the eyes' angles is probably abnormal (Madigan & Katz 1992). */
+export const INTER_EYE_DIFFERENCE_ABNORMAL = 4
 
 /** What a learner records from a fundus photograph, per eye. */
 export const FUNDUS_FINDINGS = ['excyclo', 'incyclo', 'within-normal'] as const

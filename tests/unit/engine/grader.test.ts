@@ -293,9 +293,12 @@ describe('truth and explanation', () => {
 })
 
 describe('left-right-rule-swapped across attempts', () => {
-  it('flags direction reversed for one eye only, repeatedly', () => {
-    const reversedLE = { slips: [{ code: 'direction-reversed' as const, eye: 'LE' as const }] }
+  it('flags direction reversed for one eye only, repeatedly, where the other eye\'s torsion was recorded the right way', () => {
+    // issue 11: only attempts whose other eye was torted (1° or more) and recorded rightly tell a swap from recording the image
+    const reversedLE = { slips: [{ code: 'direction-reversed' as const, eye: 'LE' as const }], torsion: { RE: 5, LE: 4 }, recorded: { RE: 'excyclo', LE: 'incyclo' } }
     const clean = { slips: [] }
+    const imageOnLeftOnly = { slips: [{ code: 'direction-reversed' as const, eye: 'LE' as const }], torsion: { RE: 0.5, LE: 4 }, recorded: { RE: 'none', LE: 'incyclo' } }
+    expect(findRuleSwap([imageOnLeftOnly, clean, imageOnLeftOnly])).toBeNull()
     expect(findRuleSwap([reversedLE, clean, reversedLE])).toEqual(expect.objectContaining({ code: 'left-right-rule-swapped', eye: 'LE' }))
     expect(findRuleSwap([reversedLE, clean])).toBeNull()
     const both = { slips: [{ code: 'direction-reversed' as const, eye: 'LE' as const }, { code: 'direction-reversed' as const, eye: 'RE' as const }] }
@@ -303,5 +306,6 @@ describe('left-right-rule-swapped across attempts', () => {
     expect(findRuleSwap([both, both, both])).toBeNull()
     const reversedRE = { slips: [{ code: 'direction-reversed' as const, eye: 'RE' as const }] }
     expect(findRuleSwap([reversedLE, reversedLE, reversedRE])).toBeNull()
+    expect(findRuleSwap([reversedLE, reversedLE, imageOnLeftOnly])).toEqual(expect.objectContaining({ eye: 'LE' }))
   })
 })

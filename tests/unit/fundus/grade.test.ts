@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { generateCase } from '~~/server/utils/engine/generator'
 import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
-import { compareWithDmr } from '~~/server/utils/fundus/compare'
+import { compareWithDmr, fundusPointer } from '~~/server/utils/fundus/compare'
 import { fundusForCase } from '~~/server/utils/fundus/generate'
 import { ddUnitFromMarks, gradeFundus } from '~~/server/utils/fundus/grade'
 import type { FundusReference } from '~~/server/utils/fundus/grade'
@@ -120,5 +120,58 @@ describe('subjective against objective', () => {
     const cmp = compareWithDmr(c, fundusForCase(c))
     expect(cmp.underReports).toBe(false)
     expect(cmp.explanation.join(' ')).toMatch(/agree/)
+  })
+})
+
+describe('the long-standing explanation agrees with the grade (issue 11)', () => {
+  it('on 400 seeds: names the torsion on the fundus only when the grade does, and otherwise teaches the comparison', () => {
+    // domain.md §6; Kang et al., PLoS One 2020 (12.19° paretic vs 6.71° fellow); Madigan & Katz,
+    // J Pediatr Ophthalmol Strabismus 1992;29(3):171-4 (more than 4° between the eyes probably abnormal)
+    const seen = { shows: 0, inside: 0 }
+    for (let i = 0; i < 400; i++) {
+      const c = generateCase(i % 2 ? 'long-standing-so-palsy-standard' : 'long-standing-so-palsy-challenging', `agree-${i}`)
+      const eye = c.affectedEye!
+      const fellow: Eye = eye === 'RE' ? 'LE' : 'RE'
+      const truth = fundusForCase(c)
+      const p = truth.eyes[eye].picture
+      const grade = gradeFundus({ references: { [eye]: { eye, disc: p.disc, fovea: p.fovea, ddUnit: 1 } }, marks: { [eye]: { disc: p.disc, fovea: p.fovea, finding: 'excyclo' } } })
+      const expected = grade.eyes[eye]!.expectedFinding
+      const cmp = compareWithDmr(c, truth)
+      const text = cmp.explanation.join(' ')
+      const where = `seed ${i}: ${text}`
+      expect(expected, where).not.toBe('incyclo')
+      expect(text, where).toMatch(/sensory adaptation/)
+      expect(text, where).toMatch(/1979/)
+      expect(fundusPointer(c), where).toMatch(expected === 'excyclo' ? /shows the torsion/ : /inside the normal range.*does not show the torsion.*compare/)
+      if (expected === 'excyclo') {
+        seen.shows++
+        expect(text, where).toMatch(/lies above the normal range, so here the fundus shows the torsion/)
+      }
+      else {
+        seen.inside++
+        expect(text, where).not.toMatch(/fundus shows the torsion|as the fundus shows/i)
+        expect(text, where).toContain(`its disc–fovea angle of ${truth.eyes[eye].angle.toFixed(1)}°, though larger than its own normal angle, is still inside the normal range`)
+        expect(text, where).toContain(`${truth.eyes[fellow].angle.toFixed(1)}°`)
+        expect(text, where).toMatch(/fellow eye/)
+        expect(text, where).toMatch(/what the patient reports/)
+        const diff = truth.eyes[eye].angle - truth.eyes[fellow].angle
+        expect(text, where).toMatch(diff > 4 ? /probably abnormal \(Madigan & Katz 1992\)/ : diff > 0 ? /two normal eyes \(Madigan & Katz 1992\), so here the photograph alone cannot confirm/ : /cannot confirm the torsion at all/)
+      }
+      // the per-eye line places each angle as the grade does
+      expect(cmp.explanation[0], where).toMatch(findingForAngle('RE', truth.eyes.RE.angle) === 'within-normal' ? /inside the normal range/ : /(above|below) the normal range/)
+    }
+    // both branches are exercised, so the agreement is tested, not assumed
+    expect(seen.shows).toBeGreaterThan(20)
+    expect(seen.inside).toBeGreaterThan(20)
+  })
+
+  it('a healthy eye is compared as not torted, with the subjective excyclo named as a perception', () => {
+    const c = generateCase('normal-standard', 'healthy-words')
+    const cmp = compareWithDmr(c, fundusForCase(c))
+    expect(cmp.objectiveTorsion).toEqual({ RE: 0, LE: 0 })
+    const text = cmp.explanation.join(' ')
+    expect(text).toMatch(/Both eyes are healthy/)
+    expect(text).toMatch(/Flodin/)
+    expect(text).not.toMatch(/differ by more than/)
   })
 })

@@ -5,6 +5,7 @@ import { makeRng } from '#shared/engine/random'
 import { countsFromHistory, detectPatterns } from '#shared/review/patterns'
 import { PROFILES, SIMULATION_TEMPLATES, simulateAttempt } from '../../../db/seed/learnerModel'
 import type { Profile } from '../../../db/seed/learnerModel'
+import { ruleSwapAttemptOf } from '../../../server/utils/attempts'
 import { gradeAttempt } from '../../../server/utils/engine/attempt'
 import { generateCase } from '../../../server/utils/engine/generator'
 
@@ -13,7 +14,8 @@ function history(profile: Profile, n: number, key: string) {
   return Array.from({ length: n }, (_, i) => {
     const c = generateCase(SIMULATION_TEMPLATES[(i * 5 + key.length) % SIMULATION_TEMPLATES.length]!, `${key}-${i}`)
     const input = simulateAttempt(c, profile, rng)
-    return gradeAttempt(c, input, { mode: 'learner-turns' })
+    const grade = gradeAttempt(c, input, { mode: 'learner-turns' })
+    return { ...ruleSwapAttemptOf(grade, input.gaze), parsed: grade.parsed }
   })
 }
 

@@ -1,11 +1,17 @@
 // Per-learner slip patterns on hand-made attempt histories (issue 6, item 2).
 import { describe, expect, it } from 'vitest'
 import { fc, test } from '@fast-check/vitest'
-import { findRuleSwap } from '#shared/engine/slips'
-import type { Slip } from '#shared/engine/slips'
+import { findRuleSwap, ruleSwapEvidence } from '#shared/engine/slips'
+import type { RuleSwapAttempt, Slip } from '#shared/engine/slips'
 import { countsFromHistory, detectPatterns, needsHelpScore, ruleSwapEye } from '#shared/review/patterns'
+import { attemptArb, attemptOn } from '../../support/slipHistories'
 
-type H = { slips: Slip[] }[]
+type H = RuleSwapAttempt[]
+/** Both eyes clearly torted (a bilateral palsy): a one-eye reversal here tells a rule swap from recording the image. */
+const BOTH = { RE: 6, LE: -4 }
+/** Only the right eye torted (a right palsy, healthy left eye): a reversal here cannot tell the two habits apart. */
+const RIGHT_ONLY = { RE: 7, LE: 0.6 }
+const LEFT_ONLY = { RE: 0, LE: -5 }
 const clean = (n: number): H => Array.from({ length: n }, () => ({ slips: [] }))
 const rev = (...eyes: ('RE' | 'LE')[]): { slips: Slip[] } => ({ slips: eyes.map(eye => ({ code: 'direction-reversed', eye })) })
 const one = (code: Slip['code'], eye?: 'RE' | 'LE'): { slips: Slip[] } => ({ slips: [{ code, ...(eye ? { eye } : {}) }] })
@@ -18,15 +24,50 @@ describe('pattern detection on hand-made histories', () => {
     expect(codes([])).toEqual([])
   })
 
-  it('finds a left-eye rule swap: the left eye reversed on its own, the right never', () => {
-    const h = [...clean(3), rev('LE'), rev('LE'), rev('LE'), one('amount-off', 'RE')]
+  it('finds a left-eye rule swap: the left eye reversed while the torted right eye is recorded the right way', () => {
+    const h = [...clean(3), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE']), one('amount-off', 'RE')]
     expect(codes(h)).toEqual(['left-right-rule-swapped:LE'])
     const found = detectPatterns(countsFromHistory(h))[0]!
     expect(found).toMatchObject({ count: 3, of: 7 })
   })
 
   it('finds a right-eye rule swap', () => {
-    expect(codes([...clean(2), rev('RE'), rev('RE')])).toEqual(['left-right-rule-swapped:RE'])
+    expect(codes([...clean(2), attemptOn(BOTH, ['RE']), attemptOn(BOTH, ['RE'])])).toEqual(['left-right-rule-swapped:RE'])
+  })
+
+  it('does not call recording the image on cases with one eye torted a rule swap (issue 11)', () => {
+    // each attempt reverses the only torted eye: recording the image would do exactly that
+    expect(codes([...clean(3), attemptOn(RIGHT_ONLY, ['RE']), attemptOn(RIGHT_ONLY, ['RE']), attemptOn(RIGHT_ONLY, ['RE'])])).toEqual(['image-recorded'])
+    expect(codes([...clean(3), attemptOn(LEFT_ONLY, ['LE']), attemptOn(LEFT_ONLY, ['LE'])])).toEqual(['image-recorded'])
+    // the same slips with no truth to tell them apart count the same way
+    expect(codes([...clean(2), rev('RE'), rev('RE')])).toEqual(['image-recorded'])
+    const counts = countsFromHistory([attemptOn(RIGHT_ONLY, ['RE']), attemptOn(RIGHT_ONLY, ['RE'])])
+    expect(counts.reversed.reOnly).toBe(2)
+    expect(counts.ruleSwap).toEqual({ RE: 0, LE: 0 })
+  })
+
+  it('takes as evidence only a fellow eye torted by 1° or more and recorded with the right direction', () => {
+    const reversedLE = (torsion: { RE: number, LE: number }, recordedRE: 'excyclo' | 'incyclo' | 'none' | null): RuleSwapAttempt =>
+      ({ slips: [{ code: 'direction-reversed', eye: 'LE' }], torsion, recorded: { RE: recordedRE, LE: 'incyclo' } })
+    // domain.md §5.2: a true torsion of 1° or more has a direction
+    expect(ruleSwapEvidence(reversedLE({ RE: 1, LE: 5 }, 'excyclo'))).toBe('LE')
+    expect(ruleSwapEvidence(reversedLE({ RE: -1.5, LE: 5 }, 'incyclo'))).toBe('LE')
+    expect(ruleSwapEvidence(reversedLE({ RE: 0.9, LE: 5 }, 'excyclo'))).toBeNull()
+    expect(ruleSwapEvidence(reversedLE({ RE: 4, LE: 5 }, 'none'))).toBeNull()
+    expect(ruleSwapEvidence(reversedLE({ RE: 4, LE: 5 }, null))).toBeNull()
+    expect(ruleSwapEvidence(reversedLE({ RE: 4, LE: 5 }, 'incyclo'))).toBeNull()
+    expect(ruleSwapEvidence({ slips: [{ code: 'direction-reversed', eye: 'LE' }] })).toBeNull()
+    // both eyes reversed is never evidence
+    expect(ruleSwapEvidence(attemptOn(BOTH, ['RE', 'LE']))).toBeNull()
+  })
+
+  it('keeps a swap found on telling attempts, counting only those, and drops it when the other eye is ever reversed alone', () => {
+    const h = [...clean(2), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE']), attemptOn(LEFT_ONLY, ['LE']), attemptOn(LEFT_ONLY, ['LE'])]
+    expect(detectPatterns(countsFromHistory(h))).toEqual([{ code: 'left-right-rule-swapped', eye: 'LE', count: 2, of: 6 }])
+    // a right eye reversed on its own (even where it cannot tell) does not fit a left-eye swap
+    expect(codes([...h, attemptOn(RIGHT_ONLY, ['RE'])])).toEqual(['image-recorded'])
+    // a single telling attempt is not yet a pattern: the reversals count as recording the image
+    expect(codes([...clean(2), attemptOn(BOTH, ['LE']), attemptOn(LEFT_ONLY, ['LE']), attemptOn(LEFT_ONLY, ['LE'])])).toEqual(['image-recorded'])
   })
 
   it('reads reversals in both eyes as recording the image, not as a rule swap', () => {
@@ -51,26 +92,30 @@ describe('pattern detection on hand-made histories', () => {
   })
 
   it('lets a specific recording habit stand instead of the general one', () => {
+    expect(codes([...clean(2), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE'])])).not.toContain('records-not-measures')
     expect(codes([...clean(2), rev('LE'), rev('LE'), rev('LE')])).not.toContain('records-not-measures')
   })
 
   it('ranks by weighted evidence', () => {
-    const swap = detectPatterns(countsFromHistory([...clean(2), rev('LE'), rev('LE'), rev('LE')]))
+    const swap = detectPatterns(countsFromHistory([...clean(2), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE']), attemptOn(BOTH, ['LE'])]))
     const unnamed = detectPatterns(countsFromHistory([...clean(2), one('test-unnamed'), one('test-unnamed'), one('test-unnamed')]))
     expect(needsHelpScore(swap)).toBeGreaterThan(needsHelpScore(unnamed))
   })
 })
 
-const slipArb = fc.record({
-  code: fc.constantFrom('direction-reversed', 'direction-reversed', 'amount-off', 'test-unnamed', 'not-parallel'),
-  eye: fc.option(fc.constantFrom('RE', 'LE'), { nil: undefined }),
-}).map(s => (s.eye ? { code: s.code, eye: s.eye } : { code: s.code }) as Slip)
-const historyArb = fc.array(fc.record({ slips: fc.array(slipArb, { maxLength: 4 }) }), { maxLength: 15 })
+const historyArb = fc.array(attemptArb(['direction-reversed', 'direction-reversed', 'amount-off', 'test-unnamed', 'not-parallel']), { maxLength: 15 })
 
 describe('the rule swap on counts agrees with findRuleSwap', () => {
   test.prop([historyArb, fc.integer({ min: 1, max: 4 })], { numRuns: 500 })('on random histories', (history, minimum) => {
     const expected = findRuleSwap(history, minimum)?.eye ?? null
-    expect(ruleSwapEye(countsFromHistory(history).reversed, minimum)).toBe(expected)
+    expect(ruleSwapEye(countsFromHistory(history), minimum)).toBe(expected)
+  })
+
+  test.prop([historyArb])('and is claimed only where enough attempts tell it apart from recording the image', (history) => {
+    const swap = findRuleSwap(history)
+    if (swap) expect(history.filter(a => ruleSwapEvidence(a) === swap.eye).length).toBeGreaterThanOrEqual(2)
+    // without the truth, no history is a rule swap
+    expect(findRuleSwap(history.map(a => ({ slips: a.slips })))).toBeNull()
   })
 
   test.prop([historyArb])('and detectPatterns reports exactly that swap', (history) => {

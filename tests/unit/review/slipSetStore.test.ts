@@ -9,6 +9,7 @@ import type { CompiledQuery } from 'kysely'
 import { afterEach, describe, expect, it } from 'vitest'
 import { fc } from '@fast-check/vitest'
 import type { Slip } from '#shared/engine/slips'
+import { ruleSwapEvidence } from '#shared/engine/slips'
 import { countsFromHistory } from '#shared/review/patterns'
 import { slipSetOf } from '#shared/review/slipSet'
 import { reviewFilterQuery } from '#shared/schemas/review'
@@ -18,6 +19,7 @@ import type { Database } from '../../../db/schema'
 import { learnerCounts, needsHelp } from '../../../server/utils/review/learners'
 import type { ReviewScope } from '../../../server/utils/review/scope'
 import { attemptValues } from '../../support/reviewRows'
+import { attemptOn, historyArb } from '../../support/slipHistories'
 
 const all: ReviewScope = { cohortIds: null, role: 'lecturer', userId: 0 }
 const now = '2026-11-02T10:00:00.000Z'
@@ -78,7 +80,7 @@ describe('migration 0007', () => {
     // 5,200 attempts: the backfill works in ranges of 5,000 attempt ids
     const histories = fc.sample(fc.array(fc.record({ slips: fc.array(slipArb, { maxLength: 4 }) }), { minLength: 130, maxLength: 130 }), { numRuns: ids.length, seed: 70 })
     const raw = db as unknown as Kysely<any>
-    const made = histories.flatMap((history, i) => history.map((a, j) => ({ i, slips: a.slips, values: (({ slip_set: _notYet, ...v }) => v)(attemptValues({
+    const made = histories.flatMap((history, i) => history.map((a, j) => ({ i, slips: a.slips, values: (({ slip_set: _notYet, rule_swap_eye: _later, ...v }) => v)(attemptValues({
       learnerId: ids[i]!, cohortId: cohorts[i % 2]!, submittedAt: `2026-10-${String(1 + (j % 28)).padStart(2, '0')}T10:00:00.000Z`, slips: a.slips,
     }, caseId)) })))
     await raw.transaction().execute(async (trx) => {
@@ -112,10 +114,45 @@ describe('migration 0007', () => {
   })
 })
 
+describe('migration 0012', () => {
+  it('backfills each attempt\'s rule-swap evidence from its slips, truth and record, across more than one batch, and the counts follow', async () => {
+    const db = open()
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    expect((await migrator.migrateTo('0009_quiz_fundus')).error).toBeUndefined()
+    const { cohorts, ids, caseId } = await people(db, 40)
+    // 5,200 attempts: the backfill works in ranges of 5,000 attempt ids
+    const histories = fc.sample(historyArb(['direction-reversed', 'amount-off', 'test-unnamed'], { minLength: 130, maxLength: 130 }), { numRuns: ids.length, seed: 12 })
+    const raw = db as unknown as Kysely<any>
+    const made = histories.flatMap((history, i) => history.map((a, j) => (({ rule_swap_eye: _notYet, ...v }) => v)(attemptValues({
+      learnerId: ids[i]!, cohortId: cohorts[i % 2]!, submittedAt: `2026-10-${String(1 + (j % 28)).padStart(2, '0')}T10:00:00.000Z`, slips: a.slips,
+      torsion: a.torsion, reRecorded: a.recorded.RE, leRecorded: a.recorded.LE,
+    }, caseId))))
+    for (let k = 0; k < made.length; k += 200) await raw.insertInto('attempts').values(made.slice(k, k + 200)).execute()
+    await migrateToLatest(db)
+
+    const stored = (await db.selectFrom('attempts').select('rule_swap_eye').orderBy('id').execute()).map(r => r.rule_swap_eye)
+    const expected = histories.flatMap(h => h.map(a => ruleSwapEvidence(a)))
+    expect(stored).toHaveLength(5200)
+    expect(stored).toEqual(expected)
+    expect(stored.filter(e => e === 'RE').length).toBeGreaterThan(50)
+    expect(stored.filter(e => e === 'LE').length).toBeGreaterThan(50)
+    // 0007's per-learner index is left as it was
+    expect((sqlite.prepare('select sql from sqlite_master where name = \'attempts_rv_slip_set\'').get() as { sql: string }).sql).not.toMatch(/rule_swap_eye/)
+    const counts = await learnerCounts(db, reviewFilterQuery.parse({}), all)
+    histories.forEach((h, i) => expect(counts.get(ids[i]!)).toEqual(countsFromHistory(h)))
+
+    const down = await migrator.migrateTo('0009_quiz_fundus')
+    expect(down.error).toBeUndefined()
+    const columns = sqlite.prepare('select name from pragma_table_info(\'attempts\')').all() as { name: string }[]
+    expect(columns.map(c => c.name)).not.toContain('rule_swap_eye')
+    expect(sqlite.prepare('select name from sqlite_master where type = \'index\' and name = \'attempts_rv_rule_swap\'').get()).toBeUndefined()
+  })
+})
+
 describe('query plans for who needs help', () => {
   const plan = (q: CompiledQuery) => (sqlite.prepare(`explain query plan ${q.sql}`).all(...q.parameters as unknown[]) as { detail: string }[]).map(r => r.detail)
 
-  it('counts per learner from attempts_rv_slip_set alone, grouped without a sort, for every scope and filter', async () => {
+  it('counts per learner from attempts_rv_slip_set, and the rule-swap evidence from the partial attempts_rv_rule_swap, each grouped without a sort, for every scope and filter', async () => {
     const db = open()
     await migrateToLatest(db)
     const { cohorts } = await people(db, 2)
@@ -126,10 +163,13 @@ describe('query plans for who needs help', () => {
     for (const [filters, scope] of views) {
       queries = []
       await learnerCounts(db, reviewFilterQuery.parse(filters), scope)
-      expect(queries).toHaveLength(1)
+      expect(queries).toHaveLength(2)
       const steps = plan(queries[0]!)
       expect(steps.join(' | '), JSON.stringify(filters)).toMatch(/^SEARCH attempts USING COVERING INDEX attempts_rv_slip_set \(cohort_id/)
       expect(steps.join(' | ')).not.toMatch(/TEMP B-TREE/)
+      const evidence = plan(queries[1]!).join(' | ')
+      expect(evidence, JSON.stringify(filters)).toMatch(/^SEARCH attempts USING COVERING INDEX attempts_rv_rule_swap \(cohort_id/)
+      expect(evidence).not.toMatch(/TEMP B-TREE/)
     }
   })
 
@@ -145,11 +185,37 @@ describe('query plans for who needs help', () => {
     }
     queries = []
     const { items } = await needsHelp(db, reviewFilterQuery.parse({}), all, 50)
-    expect(items.map(i => i.patterns.map(p => [p.code, p.examples.length]))).toEqual([[['left-right-rule-swapped', 2], ['dial-value-as-amount', 3]]])
+    // (one-eye reversals with no truth to tell a rule swap apart count as recording the image: issue 11)
+    expect(items.map(i => i.patterns.map(p => [p.code, p.examples.length]))).toEqual([[['image-recorded', 2], ['dial-value-as-amount', 3]]])
     const examples = queries.at(-1)!
     expect(examples.sql).toMatch(/union all/)
     const steps = plan(examples).filter(s => s.startsWith('SEARCH') || s.startsWith('SCAN attempt'))
     expect(steps).toHaveLength(2)
     for (const s of steps) expect(s).toMatch(/^SEARCH attempt_slips USING COVERING INDEX attempt_slips_rv_learner \(cohort_id=\? AND learner_id=\? AND code=\?/)
+  })
+
+  it('finds a rule swap\'s examples among the learner\'s telling attempts only, from the partial index attempts_rv_rule_swap', async () => {
+    const db = open()
+    await migrateToLatest(db)
+    const { cohorts, ids, caseId } = await people(db, 2)
+    // three left-eye reversals beside a torted, rightly recorded right eye, then one on a left-eye-only case (newest)
+    const made = [
+      attemptOn({ RE: 6, LE: -4 }, ['LE']), attemptOn({ RE: 5, LE: 3 }, ['LE']), attemptOn({ RE: -3, LE: 7 }, ['LE']), attemptOn({ RE: 0.5, LE: 6 }, ['LE']),
+    ]
+    const attemptIds: number[] = []
+    for (const [k, a] of made.entries()) {
+      const values = attemptValues({ learnerId: ids[0]!, cohortId: cohorts[0]!, submittedAt: `2026-10-0${k + 1}T10:00:00.000Z`, slips: a.slips, torsion: a.torsion, reRecorded: a.recorded.RE, leRecorded: a.recorded.LE }, caseId)
+      const { id } = await db.insertInto('attempts').values(values).returning('id').executeTakeFirstOrThrow()
+      await db.insertInto('attempt_slips').values(a.slips.map(s => ({ attempt_id: id, learner_id: ids[0]!, cohort_id: cohorts[0]!, kind: 'practice' as const, quiz_id: null, template_id: 'so-palsy-left-standard', condition: 'so-palsy', code: s.code, eye: s.eye ?? null, created_at: values.submitted_at }))).execute()
+      attemptIds.push(id)
+    }
+    queries = []
+    const { items } = await needsHelp(db, reviewFilterQuery.parse({}), all, 50)
+    expect(items).toHaveLength(1)
+    expect(items[0]!.patterns).toEqual([expect.objectContaining({ code: 'left-right-rule-swapped', eye: 'LE', count: 3, of: 4 })])
+    // newest telling attempt first; the left-eye-only case is not an example
+    expect(items[0]!.patterns[0]!.examples).toEqual([attemptIds[2], attemptIds[1], attemptIds[0]])
+    const steps = plan(queries.at(-1)!).filter(s => s.startsWith('SEARCH') || s.startsWith('SCAN attempt'))
+    expect(steps).toEqual([expect.stringMatching(/^SEARCH attempts USING COVERING INDEX attempts_rv_rule_swap \(cohort_id=\? AND learner_id=\? AND rule_swap_eye=\?/)])
   })
 })

@@ -4,6 +4,7 @@
 // equals the one counted from scratch from its attempt_slips rows.
 import type { Kysely } from 'kysely'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
+import { ruleSwapEvidence } from '#shared/engine/slips'
 import { countsFromHistory } from '#shared/review/patterns'
 import type { Slip } from '#shared/engine/slips'
 import { slipSetOf } from '#shared/review/slipSet'
@@ -55,7 +56,7 @@ describe('demo seed', () => {
   })
 
   it('stores each attempt\'s slip set exactly as counted from scratch from its slip rows, and the counts follow', async () => {
-    const attempts = await db.selectFrom('attempts').select(['id', 'learner_id', 'slip_set']).where('cohort_id', 'is not', null).execute()
+    const attempts = await db.selectFrom('attempts').select(['id', 'learner_id', 'slip_set', 'rule_swap_eye', 'truth_json', 're_recorded_direction', 'le_recorded_direction']).where('cohort_id', 'is not', null).execute()
     const slips = await db.selectFrom('attempt_slips').select(['attempt_id', 'code', 'eye']).execute()
     const slipsOf = (id: number) => slips.filter(s => s.attempt_id === id).map(s => (s.eye ? { code: s.code, eye: s.eye } : { code: s.code }) as Slip)
     expect(attempts.filter(a => a.slip_set !== slipSetOf(slipsOf(a.id)))).toEqual([])
@@ -66,8 +67,13 @@ describe('demo seed', () => {
     const learners = [...new Set(attempts.map(a => a.learner_id))]
     expect(learners.length).toBeGreaterThan(8)
     for (const id of learners) {
-      const history = attempts.filter(a => a.learner_id === id).map(a => ({ slips: slipsOf(a.id) }))
+      const history = attempts.filter(a => a.learner_id === id).map(a => ({ slips: slipsOf(a.id), torsion: JSON.parse(a.truth_json).torsion, recorded: { RE: a.re_recorded_direction, LE: a.le_recorded_direction } }))
       expect(counts.get(id), `learner ${id}`).toEqual(countsFromHistory(history))
     }
+    // the rule-swap evidence recordAttempt stored (0012) is the rule's, and the planted one-eye reversers make some
+    const evidence = attempts.map(a => ruleSwapEvidence({ slips: slipsOf(a.id), torsion: JSON.parse(a.truth_json).torsion, recorded: { RE: a.re_recorded_direction, LE: a.le_recorded_direction } }))
+    expect(attempts.map(a => a.rule_swap_eye)).toEqual(evidence)
+    expect(evidence.filter(e => e === 'RE').length).toBeGreaterThan(1)
+    expect(evidence.filter(e => e === 'LE').length).toBeGreaterThan(1)
   })
 })

@@ -1,9 +1,9 @@
 // Submit an attempt on my practice case: graded and stored by recordAttempt; in
 // practice the result, with the truth, comes back at once.
 import { caseIdParams, practiceAttemptSchema } from '#shared/schemas/practice'
-import type { AttemptResult } from '#shared/types/practice'
+import type { PracticeAttemptResult } from '#shared/types/practice'
 
-export default defineEventHandler(async (event): Promise<AttemptResult> => {
+export default defineEventHandler(async (event): Promise<PracticeAttemptResult> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
   const { id } = paramsAs(event, caseIdParams)
   const { trial, ...attempt } = await readBodyAs(event, practiceAttemptSchema)
@@ -21,5 +21,6 @@ export default defineEventHandler(async (event): Promise<AttemptResult> => {
     startedAt: earlier ? null : row.created_at,
   }))
   setResponseStatus(event, 201)
-  return attemptResultOf(recorded.attemptId, recorded.grade)
+  // the attempt reveals the case: its heading names the condition from now on
+  return { ...attemptResultOf(recorded.attemptId, recorded.grade), caseTitle: practiceCaseView(row, recorded.patient, true).title }
 })
