@@ -11,6 +11,7 @@ import * as m0007 from './0007_review_learners'
 import * as m0003 from './0003_quizzes'
 import * as m0008 from './0008_invitation_name'
 import * as m0009 from './0009_quiz_fundus'
+import * as m0010 from './0010_sessions'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
@@ -22,6 +23,7 @@ export const migrations: Record<string, Migration> = {
   '0003_quizzes': m0003,
   '0008_invitation_name': m0008,
   '0009_quiz_fundus': m0009,
+  '0010_sessions': m0010,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

@@ -1,9 +1,15 @@
-// Start-up checks: refuse to serve in production without a session password,
-// then open, migrate and (when asked) seed the database straight away.
+// Start-up checks: refuse to serve in production without a session password or
+// a site URL, then open, migrate and (when asked) seed the database straight away.
 export default defineNitroPlugin(() => {
   const password = String(useRuntimeConfig().session?.password ?? '')
   if (!import.meta.dev && password.length < 32) {
     console.error('[cyclodial] NUXT_SESSION_PASSWORD must be set to at least 32 characters in production. Refusing to start.')
+    process.exit(1)
+  }
+  // Links in e-mails (reset, invitation, release, practice set) are built from
+  // this origin only, never from the request's Host or X-Forwarded-* headers.
+  if (!import.meta.dev && !configuredSiteOrigin()) {
+    console.error('[cyclodial] NUXT_PUBLIC_SITE_URL must be set to the site\'s public origin (e.g. https://cyclodial.example.ac.uk) in production. Refusing to start.')
     process.exit(1)
   }
   useDb().catch((error) => {

@@ -5,10 +5,11 @@ const GENERIC = 'That e-mail and password do not match an active account.'
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readBodyAs(event, loginBody)
-  const ip = getRequestIP(event, { xForwardedFor: false }) ?? 'unknown'
+  const ip = clientAddress(event)
   const db = await useDb()
 
-  const throttle = await loginThrottle(db, email, ip)
+  // Reserved before the password is checked, atomically (server/utils/rate-limit.ts).
+  const throttle = await reserveLoginAttempt(db, email, ip)
   if (throttle.limited) {
     setResponseHeader(event, 'Retry-After', throttle.retryAfterSeconds)
     throw createError({
@@ -19,6 +20,8 @@ export default defineEventHandler(async (event) => {
     })
   }
 
+  if (throttle.delayMs) await new Promise(r => setTimeout(r, throttle.delayMs))
+
   const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst()
   // Verify against a real hash even for unknown e-mails so timing does not
   // reveal which addresses have accounts.
@@ -27,7 +30,7 @@ export default defineEventHandler(async (event) => {
     : (await verifyPassword(await dummyHash(), password), false)
 
   if (!user || !ok || user.disabled) {
-    await recordLoginFailure(db, email, ip)
+    // the reservation stays as the failure
     throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: GENERIC, data: { code: 'bad-credentials' } })
   }
 
@@ -37,7 +40,7 @@ export default defineEventHandler(async (event) => {
     await db.updateTable('users').set({ password_hash: await hashPassword(password) }).where('id', '=', user.id).execute()
   }
   const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
-  await replaceUserSession(event, { user: sessionUser, loggedInAt: nowIso() })
+  await startSession(event, sessionUser)
   return { user: sessionUser, home: homeFor(user.role) }
 })
 
