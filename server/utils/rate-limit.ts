@@ -34,12 +34,26 @@ export function slowdownMs(failures: number): number {
   return Math.min(MAX_SLOWDOWN_MS, SLOWDOWN_STEP_MS * (failures - SLOW_AFTER_FAILURES_PER_IP + 1))
 }
 
+// Attempts reserved but not yet decided, per address (this process). They count
+// towards the per-e-mail limit (that is what stops a burst) but not towards the
+// address's slow-down, which is about failures: a class signing in at once from
+// one school network is not slowed by its own successful sign-ins.
+const pendingByIp = new Map<string, number>()
+
+/** Call once the reserved attempt is decided (success or failure). */
+export function settleLoginAttempt(ip: string): void {
+  const n = (pendingByIp.get(ip) ?? 1) - 1
+  if (n > 0) pendingByIp.set(ip, n)
+  else pendingByIp.delete(ip)
+}
+
 export type Reservation = Throttle & { attemptId: number | null, delayMs: number }
 
 /**
  * Counts and reserves one sign-in attempt in a single transaction (SQLite runs
  * it alone), before the slow password check. The reservation counts as a
- * failure until clearLoginFailures removes it after a correct password.
+ * failure until clearLoginFailures removes it after a correct password; the
+ * caller settles it with settleLoginAttempt either way.
  */
 export async function reserveLoginAttempt(db: Kysely<Database>, email: string, ip: string, now = new Date()): Promise<Reservation> {
   const since = new Date(now.getTime() - LOGIN_WINDOW_MINUTES * 60_000).toISOString()
@@ -50,10 +64,12 @@ export async function reserveLoginAttempt(db: Kysely<Database>, email: string, i
     if (blocked.limited) return { ...blocked, attemptId: null, delayMs: 0 }
     const { n } = await trx.selectFrom('login_failures').select(eb => eb.fn.countAll<number>().as('n'))
       .where('ip', '=', ip).where('created_at', '>', since).executeTakeFirstOrThrow()
+    const failures = Math.max(0, Number(n) - (pendingByIp.get(ip) ?? 0))
     const row = await trx.insertInto('login_failures').values({ email, ip, created_at: now.toISOString() }).returning('id').executeTakeFirstOrThrow()
     // Keep the table small: nothing older than a day matters.
     await trx.deleteFrom('login_failures').where('created_at', '<', new Date(now.getTime() - 86_400_000).toISOString()).execute()
-    return { limited: false, retryAfterSeconds: 0, attemptId: row.id, delayMs: slowdownMs(Number(n)) }
+    pendingByIp.set(ip, (pendingByIp.get(ip) ?? 0) + 1)
+    return { limited: false, retryAfterSeconds: 0, attemptId: row.id, delayMs: slowdownMs(failures) }
   })
 }
 

@@ -22,7 +22,7 @@ describe('password rules', () => {
     const token = linkIn((await waitForMail(admin, email, /reset/i)).text, '/reset').split('/reset/')[1]!
     const guest = new Client(server.baseURL)
     const refusals: [string, RegExp][] = [
-      ['Tw3lve-chars', /at least 12 characters/], // 11 characters
+      ['Elev3n-char', /at least 12 characters/], // 11 characters
       ['password1234', /common|easy to guess/], // in every common-password list (from memory)
       ['123456789012', /common|easy to guess/],
       ['qwertyuiop12', /common|easy to guess/],

@@ -1,8 +1,9 @@
 // Grading through HTTP: POST /api/record-check against the BUILT server, compared
 // in the same run with a trivial JSON route of the same server (GET /api/health,
-// one indexed SELECT). A signed-in trivial route (GET /api/auth/me: session cookie
-// unsealed, user re-read) shows how much of the gap is the sign-in check rather
-// than the grading. Loopback only; every run is bounded in time.
+// one indexed SELECT, anonymous). A signed-in trivial route (GET /api/auth/me:
+// session cookie looked up in the unsealed-cookie cache, session and user read in
+// one indexed read) shows what signing in costs. Loopback only; every run is
+// bounded in time.
 import autocannon from 'autocannon'
 import { startServer } from '../support/server'
 

@@ -20,28 +20,33 @@ export default defineEventHandler(async (event) => {
     })
   }
 
-  if (throttle.delayMs) await new Promise(r => setTimeout(r, throttle.delayMs))
+  try {
+    if (throttle.delayMs) await new Promise(r => setTimeout(r, throttle.delayMs))
 
-  const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst()
-  // Verify against a real hash even for unknown e-mails so timing does not
-  // reveal which addresses have accounts.
-  const ok = user
-    ? await verifyPassword(user.password_hash, password)
-    : (await verifyPassword(await dummyHash(), password), false)
+    const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst()
+    // Verify against a real hash even for unknown e-mails so timing does not
+    // reveal which addresses have accounts.
+    const ok = user
+      ? await verifyPassword(user.password_hash, password)
+      : (await verifyPassword(await dummyHash(), password), false)
 
-  if (!user || !ok || user.disabled) {
-    // the reservation stays as the failure
-    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: GENERIC, data: { code: 'bad-credentials' } })
+    if (!user || !ok || user.disabled) {
+      // the reservation stays as the failure
+      throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: GENERIC, data: { code: 'bad-credentials' } })
+    }
+
+    await clearLoginFailures(db, email, ip)
+    await db.updateTable('users').set({ last_login_at: nowIso() }).where('id', '=', user.id).execute()
+    if (passwordNeedsReHash(user.password_hash)) {
+      await db.updateTable('users').set({ password_hash: await hashPassword(password) }).where('id', '=', user.id).execute()
+    }
+    const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
+    await startSession(event, sessionUser)
+    return { user: sessionUser, home: homeFor(user.role) }
   }
-
-  await clearLoginFailures(db, email, ip)
-  await db.updateTable('users').set({ last_login_at: nowIso() }).where('id', '=', user.id).execute()
-  if (passwordNeedsReHash(user.password_hash)) {
-    await db.updateTable('users').set({ password_hash: await hashPassword(password) }).where('id', '=', user.id).execute()
+  finally {
+    settleLoginAttempt(ip)
   }
-  const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
-  await startSession(event, sessionUser)
-  return { user: sessionUser, home: homeFor(user.role) }
 })
 
 let dummy: Promise<string> | undefined
