@@ -15,6 +15,7 @@ import { unsealSession } from 'h3'
 import { LRUCache } from 'lru-cache'
 import type { Kysely, Transaction } from 'kysely'
 import type { Database } from '~~/db/schema'
+import { sqliteHandles } from '~~/db/open'
 import type { SessionUserData } from '#shared/auth/roles'
 
 /** Defaults: 12 hours idle, 14 days at most (OWASP ASVS 4.0 V3.3.1/V3.3.2 ask for both; the values are common practice). */
@@ -70,6 +71,29 @@ function sealedValue(event: H3Event, name: string): string | undefined {
   return parseCookies(event)[name] || undefined
 }
 
+interface SessionRow { last_seen_at: string, expires_at: string, revoked_at: string | null, id: number, email: string, name: string, role: SessionUserData['role'], disabled: number }
+
+const SESSION_SQL = `select s.last_seen_at, s.expires_at, s.revoked_at, u.id, u.email, u.name, u.role, u.disabled
+  from sessions s join users u on u.id = s.user_id where s.id = ?`
+let statement: { db: Kysely<Database>, get: (sid: string) => SessionRow | undefined } | undefined
+
+/**
+ * The session and its user in one indexed read (both by primary key). It runs on
+ * every signed-in request, so it is one prepared statement on the SQLite handle
+ * rather than a query Kysely compiles each time. (It shares Kysely's one
+ * connection, so inside another request's open transaction it may see that
+ * transaction's revocations a moment early; never a session that was not there.)
+ */
+function sessionRow(db: Kysely<Database>, sid: string): SessionRow | undefined {
+  if (statement?.db !== db) {
+    const raw = sqliteHandles.get(db)
+    if (!raw) throw new Error('No SQLite handle for the session check.')
+    const prepared = raw.prepare(SESSION_SQL)
+    statement = { db, get: (id: string) => prepared.get(id) as SessionRow | undefined }
+  }
+  return statement.get(sid)
+}
+
 export interface ResolvedSession { sid: string, user: SessionUserData }
 
 /**
@@ -102,11 +126,7 @@ async function resolve(event: H3Event): Promise<ResolvedSession | null> {
   let resolved: ResolvedSession | null = null
   if (entry !== INVALID && typeof sid === 'string') {
     const db = await useDb()
-    const row = await db.selectFrom('sessions')
-      .innerJoin('users', 'users.id', 'sessions.user_id')
-      .select(['sessions.last_seen_at', 'sessions.expires_at', 'sessions.revoked_at', 'users.id', 'users.email', 'users.name', 'users.role', 'users.disabled'])
-      .where('sessions.id', '=', sid)
-      .executeTakeFirst()
+    const row = sessionRow(db, sid)
     const now = Date.now()
     if (row && !row.revoked_at && !row.disabled
       && Date.parse(row.expires_at) > now
@@ -120,8 +140,9 @@ async function resolve(event: H3Event): Promise<ResolvedSession | null> {
 
   event.context.sessions ??= Object.create(null)
   if (resolved && entry !== INVALID) {
-    // Hand h3 the unsealed session so nuxt-auth-utils never unseals it again.
-    event.context.sessions![s.name] = structuredClone(entry)
+    // Hand h3 the unsealed session so nuxt-auth-utils never unseals it again. A
+    // copy: h3 assigns into `data` when a route updates the session (top level only).
+    event.context.sessions![s.name] = { id: entry.id, createdAt: entry.createdAt, data: { ...entry.data } }
   }
   else if (entry !== INVALID && !entry.data?.user && !sid) {
     // an anonymous session (the module makes one for visitors): keep it as it is

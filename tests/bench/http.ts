@@ -51,6 +51,7 @@ export async function httpBench(seconds = 8, connections = 20): Promise<{ health
 
     // warm both routes, then measure them alternately so drift hits both alike
     await run({ url: `${server.baseURL}/api/health`, seconds: 2, connections })
+    await run({ url: `${server.baseURL}/api/auth/me`, headers: { cookie }, seconds: 2, connections })
     await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json' }, seconds: 2, connections })
     const healthRuns: autocannon.Result[] = []
     const meRuns: autocannon.Result[] = []
