@@ -3,10 +3,12 @@
 // a disabled account and a role change end sessions on the server, idle and
 // absolute lifetimes end them too, and /api/_auth/session (added by
 // nuxt-auth-utils) follows the same rules.
+import { readFileSync } from 'node:fs'
 import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
-import { startServer, type RunningServer } from '../support/server'
+import { sealSession } from 'h3'
+import { startServer, TEST_SESSION_PASSWORD, type RunningServer } from '../support/server'
 
 /** The raw cookie header a client sends: replaying it stands for a stolen or kept copy. */
 function cookieOf(client: Client): string {
@@ -43,6 +45,12 @@ describe('revocable sessions', () => {
     const moduleView = await asCookie(server.baseURL, kept, '/api/_auth/session')
     expect(moduleView.status).toBe(200)
     expect(moduleView.body.user).toBeUndefined()
+
+    // the module's own DELETE /api/_auth/session (what its clear() calls) revokes too
+    const other = await signedIn(server.baseURL, DEMO.lecturer)
+    const otherKept = cookieOf(other)
+    expect((await other.delete('/api/_auth/session')).status).toBe(200)
+    expect((await asCookie(server.baseURL, otherKept)).status).toBe(401)
 
     const db = new Database(server.dbPath, { readonly: true })
     const rows = db.prepare(`select s.revoked_at from sessions s join users u on u.id = s.user_id where u.email = ?`).all(DEMO.lecturer) as { revoked_at: string | null }[]
@@ -107,8 +115,15 @@ describe('revocable sessions', () => {
     expect((await disabled.get('/api/auth/me')).status).toBe(401)
   })
 
-  it('a cookie from before sessions were revocable (no session id) reads as signed out', async () => {
-    // A tampered or unknown cookie is simply not a session.
+  it('a cookie sealed without a session id (as every cookie was before) reads as signed out', async () => {
+    // A genuine cookie of the old kind: the demo admin, sealed with the server's
+    // own password, no session id, no lifetime. It used to work for ever.
+    const session = { id: 'old-style-session', createdAt: Date.now(), data: { user: { id: 1, email: DEMO.admin, name: 'Old cookie', role: 'admin' }, loggedInAt: new Date().toISOString() } }
+    const event = { context: { sessions: { 'nuxt-session': session } } } as unknown as Parameters<typeof sealSession>[0]
+    const sealed = await sealSession(event, { name: 'nuxt-session', password: TEST_SESSION_PASSWORD })
+    expect((await asCookie(server.baseURL, `nuxt-session=${sealed}`)).status).toBe(401)
+    expect((await asCookie(server.baseURL, `nuxt-session=${sealed}`, '/api/_auth/session')).body.user).toBeUndefined()
+    // and a tampered value is no session either
     expect((await asCookie(server.baseURL, 'nuxt-session=Fe26.2**forged**value')).status).toBe(401)
   })
 })
@@ -147,30 +162,42 @@ describe('session lifetimes', () => {
 })
 
 describe('cheap signed-in requests', () => {
-  it('answers a signed-in trivial route at well over half the anonymous rate (the cookie is not unsealed every time)', async () => {
-    const { default: autocannon } = await import('autocannon')
+  /** CPU time (ms) the server process has used, from /proc (Linux; 1 tick = 10 ms). */
+  function serverCpuMs(pid: number): number {
+    const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]!.split(' ')
+    return (Number(fields[11]) + Number(fields[12])) * 10 // utime + stime, fields 14 and 15 of proc(5)
+  }
+
+  async function cpuPerRequest(server: RunningServer, path: string, cookie = ''): Promise<number> {
+    const count = 600
+    let next = 0
+    const worker = async () => {
+      while (next < count) {
+        next++
+        const res = await fetch(`${server.baseURL}${path}`, { headers: cookie ? { cookie } : {} })
+        if (res.status !== 200) throw new Error(`${path}: ${res.status}`)
+        await res.arrayBuffer()
+      }
+    }
+    const before = serverCpuMs(server.process.pid!)
+    await Promise.all(Array.from({ length: 8 }, worker))
+    return (serverCpuMs(server.process.pid!) - before) / count
+  }
+
+  it('a signed-in trivial request costs the server little more CPU than an anonymous one (the cookie is not unsealed every time)', async () => {
     const server = await startServer({ env: { NUXT_MAIL_CATCHER: '0' } })
     try {
       const client = await signedIn(server.baseURL, DEMO.tutor)
       const cookie = cookieOf(client)
-      const rate = (url: string, headers: Record<string, string> = {}) => new Promise<number>((res, rej) => {
-        autocannon({ url, headers, connections: 10, duration: 1 }, (err, r) => {
-          if (err) return rej(err)
-          if (r.non2xx || r.errors) return rej(new Error(`${url}: ${r.non2xx} non-2xx, ${r.errors} errors`))
-          res(r.requests.average)
-        })
-      })
-      await rate(`${server.baseURL}/api/health`)
-      let anonymous = 0
-      let signedInRate = 0
-      for (let i = 0; i < 2; i++) {
-        anonymous += await rate(`${server.baseURL}/api/health`)
-        signedInRate += await rate(`${server.baseURL}/api/auth/me`, { cookie })
-      }
-      // Issue 12 asks for 0.7× in `npm run bench`; this quick check on a shared
-      // machine asks for 0.5× (the uncached cookie gave about 0.3×).
-      expect(signedInRate / anonymous).toBeGreaterThanOrEqual(0.5)
+      await cpuPerRequest(server, '/api/health')
+      await cpuPerRequest(server, '/api/auth/me', cookie)
+      const anonymous = await cpuPerRequest(server, '/api/health')
+      const signedInCost = await cpuPerRequest(server, '/api/auth/me', cookie)
+      // Server CPU, not throughput, so other work on a shared machine hardly
+      // matters. Unsealing every time cost about 0.5 ms more per request (issue 12);
+      // the bench target (0.7× the anonymous rate) means at most about 1.4× the CPU.
+      expect(signedInCost, `anonymous ${anonymous.toFixed(3)} ms, signed in ${signedInCost.toFixed(3)} ms`).toBeLessThanOrEqual(anonymous * 1.6)
     }
     finally { await server.stop() }
-  }, 60_000)
+  }, 90_000)
 })
