@@ -48,16 +48,23 @@ export default defineNuxtConfig({
     seedDemo: '',
     // The built server never seeds the demo school unless this is also 1 (NUXT_SEED_DEMO_IN_PRODUCTION).
     seedDemoInProduction: '',
-    // Set (NUXT_TRUSTED_PROXY=1) only behind a reverse proxy that sets X-Forwarded-Proto itself.
-    trustedProxy: '',
     mailCatcher: '',
     mailCatcherPort: '',
     // First retry delay for mail that failed to send; doubles each attempt (max 1 h).
     mailRetrySeconds: 30,
     smtpUrl: '',
+    // Proxies whose X-Forwarded-For is believed (comma-separated addresses or
+    // CIDR ranges, or loopback/linklocal/uniquelocal); empty = none.
+    trustedProxies: '',
+    // A session ends after this long without a request (NUXT_SESSION_IDLE_SECONDS).
+    sessionIdleSeconds: 12 * 3600,
+    // Absolute session lifetime (NUXT_SESSION_MAX_AGE, seconds): nuxt-auth-utils'
+    // own setting, which also dates the cookie.
+    session: { maxAge: 14 * 24 * 3600 },
     mailFrom: 'Cyclodial <no-reply@cyclodial.test>',
     public: {
-      // Links in e-mails use this origin; empty means the request's own origin.
+      // Links in e-mails use this origin (NUXT_PUBLIC_SITE_URL), never the request's;
+      // required in production, the dev server's own origin in development.
       siteUrl: '',
     },
   },

@@ -48,6 +48,7 @@ export default defineConfig({
       NUXT_MAIL_CATCHER: '1',
       NUXT_MAIL_CATCHER_PORT: '0',
       NUXT_SESSION_PASSWORD: 'e2e-only-session-password-0123456789abcdef',
+      NUXT_PUBLIC_SITE_URL: baseURL,
     },
   },
 })

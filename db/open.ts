@@ -7,6 +7,12 @@ import { Kysely, Migrator, SqliteDialect } from 'kysely'
 import type { Database } from './schema'
 import { staticMigrationProvider } from './migrations'
 
+/**
+ * The better-sqlite3 handle under each Kysely instance, for the few hot paths that
+ * run one fixed query on every request (the session check) as a prepared statement.
+ */
+export const sqliteHandles = new WeakMap<Kysely<Database>, SQLite.Database>()
+
 export function openDatabase(path: string): Kysely<Database> {
   if (path !== ':memory:') mkdirSync(dirname(path), { recursive: true })
   const sqlite = new SQLite(path)
@@ -18,7 +24,9 @@ export function openDatabase(path: string): Kysely<Database> {
   // more pages in memory instead of a read() per 4 KB page (SQLite's default cache is 2 MB).
   if (path !== ':memory:') sqlite.pragma('mmap_size = 1073741824')
   sqlite.pragma('cache_size = -65536')
-  return new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) })
+  const db = new Kysely<Database>({ dialect: new SqliteDialect({ database: sqlite }) })
+  sqliteHandles.set(db, sqlite)
+  return db
 }
 
 export interface MigrationReport { name: string, status: 'Success' | 'Error' | 'NotExecuted' }

@@ -54,6 +54,8 @@ export interface PasswordResetsTable {
   expires_at: Timestamp
   used_at: Timestamp | null
   created_at: Timestamp
+  /** 0010: the client address that asked (limits reset e-mails per address). */
+  requested_ip: ColumnType<string | null, string | null | undefined, string | null>
 }
 
 export interface AuditLogTable {
@@ -417,6 +419,16 @@ export interface QuizFundusOverridesTable {
   created_at: Timestamp
 }
 
+/** 0010: a signed-in session; the sealed cookie carries its id. */
+export interface SessionsTable {
+  id: string
+  user_id: number
+  created_at: Timestamp
+  last_seen_at: Timestamp
+  expires_at: Timestamp
+  revoked_at: Timestamp | null
+}
+
 export interface Database {
   users: UsersTable
   cohorts: CohortsTable
@@ -427,6 +439,7 @@ export interface Database {
   outbox: OutboxTable
   mail_jobs: MailJobsTable
   login_failures: LoginFailuresTable
+  sessions: SessionsTable
   cases: CasesTable
   attempts: AttemptsTable
   attempt_slips: AttemptSlipsTable

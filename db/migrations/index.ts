@@ -11,6 +11,7 @@ import * as m0007 from './0007_review_learners'
 import * as m0003 from './0003_quizzes'
 import * as m0008 from './0008_invitation_name'
 import * as m0009 from './0009_quiz_fundus'
+import * as m0010 from './0010_sessions'
 import * as m0012 from './0012_rule_swap_evidence'
 
 export const migrations: Record<string, Migration> = {
@@ -23,6 +24,7 @@ export const migrations: Record<string, Migration> = {
   '0003_quizzes': m0003,
   '0008_invitation_name': m0008,
   '0009_quiz_fundus': m0009,
+  '0010_sessions': m0010,
   '0012_rule_swap_evidence': m0012,
 }
 

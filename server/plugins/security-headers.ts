@@ -36,11 +36,9 @@ function withNonce(chunks: string[], nonce: string): string[] {
 export default defineNitroPlugin((nitro) => {
   if (import.meta.dev) return
 
-  const trustProxy = trustedProxyConfigured(useRuntimeConfig().trustedProxy)
-
   nitro.hooks.hook('request', (event: H3Event) => {
     setResponseHeaders(event, BASE_HEADERS)
-    if (servedOverHttps(event, trustProxy)) setResponseHeader(event, 'Strict-Transport-Security', HSTS_VALUE)
+    if (servedOverHttps(event)) setResponseHeader(event, 'Strict-Transport-Security', HSTS_VALUE)
     if (!event.path.startsWith('/api/')) return
     setResponseHeader(event, 'Content-Security-Policy', `default-src 'none'; frame-ancestors 'none'`)
     setResponseHeader(event, 'Cache-Control', 'no-store')

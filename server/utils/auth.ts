@@ -1,23 +1,13 @@
-// Server-side role checks. The session cookie says who signed in; the role and
-// the disabled flag are re-read from the database on every protected request,
-// so a demotion or a disabled account takes effect at once.
+// Server-side role checks. The session cookie says which session this is; the
+// sessions table (revoked? expired? idle?) and the user's role and disabled flag
+// are re-read on every request in one indexed read (server/utils/sessions.ts),
+// so a sign-out, a demotion or a disabled account takes effect at once.
 import type { H3Event } from 'h3'
 import type { Role, SessionUserData } from '#shared/auth/roles'
 
 export async function currentUser(event: H3Event): Promise<SessionUserData | null> {
-  const session = await getUserSession(event)
-  const id = session.user?.id
-  if (typeof id !== 'number') return null
-  const db = await useDb()
-  const row = await db.selectFrom('users')
-    .select(['id', 'email', 'name', 'role', 'disabled'])
-    .where('id', '=', id)
-    .executeTakeFirst()
-  if (!row || row.disabled) {
-    await clearUserSession(event)
-    return null
-  }
-  return { id: row.id, email: row.email, name: row.name, role: row.role }
+  const session = await resolveSession(event)
+  return session ? { ...session.user } : null
 }
 
 /** 401 when nobody is signed in, 403 when the role is not one of `roles`. */

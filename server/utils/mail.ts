@@ -104,8 +104,41 @@ export async function deliverDueMail(): Promise<number> {
   return sent
 }
 
-/** The origin links in e-mails point at: configured site URL, else the request's. */
-export function siteOrigin(event: import('h3').H3Event): string {
-  const configured = String(useRuntimeConfig().public.siteUrl || '')
-  return (configured || getRequestURL(event).origin).replace(/\/$/, '')
+/**
+ * The configured site origin (NUXT_PUBLIC_SITE_URL), or null when it is unset
+ * or not an http(s) URL. Links in e-mails never come from the request: a forged
+ * Host or X-Forwarded-Host header must not be able to point a reset link at
+ * someone else's site.
+ */
+export function configuredSiteOrigin(raw: unknown = useRuntimeConfig().public.siteUrl): string | null {
+  const text = String(raw ?? '').trim()
+  if (!text) return null
+  try {
+    const url = new URL(text)
+    if (url.protocol !== 'http:' && url.protocol !== 'https:') return null
+    return `${url.origin}${url.pathname}`.replace(/\/+$/, '')
+  }
+  catch {
+    return null
+  }
+}
+
+/** The development server's own origin, from the same settings `nuxt dev` listens on. */
+function devServerOrigin(): string {
+  const port = process.env.NUXT_PORT || process.env.NITRO_PORT || process.env.PORT || '3000'
+  const host = process.env.NUXT_HOST || process.env.NITRO_HOST || process.env.HOST || 'localhost'
+  return `http://${host.includes(':') ? `[${host}]` : host}:${port}`
+}
+
+/**
+ * The origin links in e-mails point at: NUXT_PUBLIC_SITE_URL; in development
+ * without it, the dev server's own origin. Never the request's Host or
+ * X-Forwarded-* headers (the event is accepted only for older callers).
+ * Production refuses to start without the setting (server/plugins/0.startup.ts).
+ */
+export function siteOrigin(_event?: import('h3').H3Event): string {
+  const configured = configuredSiteOrigin()
+  if (configured) return configured
+  if (import.meta.dev) return devServerOrigin()
+  throw createError({ statusCode: 500, statusMessage: 'Server Misconfigured', message: 'NUXT_PUBLIC_SITE_URL is not set.' })
 }

@@ -36,13 +36,17 @@ describe('admin: users', () => {
     const promoted = await admin.patch(`/api/admin/users/${target.id}`, { role: 'tutor' })
     expect(promoted.status).toBe(200)
     expect(promoted.body.role).toBe('tutor')
-    // The session picks up the new role at once: the role is re-read on every request.
-    expect((await asTarget.get('/api/auth/me')).body.user.role).toBe('tutor')
+    // A role change ends the person's sessions at once (issue 12); signing in again
+    // gives the new role.
+    expect((await asTarget.get('/api/auth/me')).status).toBe(401)
+    expect((await signedIn(baseURL, 'rafe.tolliver@cyclodial.test').then(c => c.get('/api/auth/me'))).body.user.role).toBe('tutor')
     await admin.patch(`/api/admin/users/${target.id}`, { role: 'student' })
 
+    const again = await signedIn(baseURL, 'rafe.tolliver@cyclodial.test')
+    expect((await again.get('/api/auth/me')).status).toBe(200)
     const disabled = await admin.patch(`/api/admin/users/${target.id}`, { disabled: true })
     expect(disabled.body.disabled).toBe(true)
-    expect((await asTarget.get('/api/auth/me')).status).toBe(401)
+    expect((await again.get('/api/auth/me')).status).toBe(401)
     expect((await new Client(baseURL).post('/api/auth/login', { email: 'rafe.tolliver@cyclodial.test', password: 'cyclodial-demo' })).status).toBe(401)
     await admin.patch(`/api/admin/users/${target.id}`, { disabled: false })
     expect((await new Client(baseURL).post('/api/auth/login', { email: 'rafe.tolliver@cyclodial.test', password: 'cyclodial-demo' })).status).toBe(200)

@@ -8,6 +8,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'GET /api/health': 'public',
   'POST /api/auth/login': 'public',
   'POST /api/auth/logout': 'public',
+  'POST /api/auth/logout-everywhere': 'signed-in',
   'POST /api/auth/forgot': 'public',
   'POST /api/auth/reset': 'public',
   'GET /api/auth/me': 'signed-in',

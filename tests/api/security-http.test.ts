@@ -254,7 +254,7 @@ describe('point 15: production posture', () => {
     const plain = await fetch(`${baseURL}/api/health`, { headers: { 'x-forwarded-proto': 'https' } })
     expect(plain.headers.get('strict-transport-security')).toBeNull()
 
-    const proxied = await startServer({ seed: false, env: { NUXT_TRUSTED_PROXY: '1', NUXT_MAIL_CATCHER: '0' } })
+    const proxied = await startServer({ seed: false, env: { NUXT_TRUSTED_PROXIES: 'loopback', NUXT_MAIL_CATCHER: '0' } })
     try {
       const https = await fetch(`${proxied.baseURL}/login`, { headers: { 'x-forwarded-proto': 'https' } })
       // OWASP HTTP Strict Transport Security Cheat Sheet: max-age one year

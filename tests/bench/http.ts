@@ -1,8 +1,9 @@
 // Grading through HTTP: POST /api/record-check against the BUILT server, compared
 // in the same run with a trivial JSON route of the same server (GET /api/health,
-// one indexed SELECT). A signed-in trivial route (GET /api/auth/me: session cookie
-// unsealed, user re-read) shows how much of the gap is the sign-in check rather
-// than the grading. Loopback only; every run is bounded in time.
+// one indexed SELECT, anonymous). A signed-in trivial route (GET /api/auth/me:
+// session cookie looked up in the unsealed-cookie cache, session and user read in
+// one indexed read) shows what signing in costs. Loopback only; every run is
+// bounded in time.
 import autocannon from 'autocannon'
 import { startServer } from '../support/server'
 
@@ -50,6 +51,7 @@ export async function httpBench(seconds = 8, connections = 20): Promise<{ health
 
     // warm both routes, then measure them alternately so drift hits both alike
     await run({ url: `${server.baseURL}/api/health`, seconds: 2, connections })
+    await run({ url: `${server.baseURL}/api/auth/me`, headers: { cookie }, seconds: 2, connections })
     await run({ url: `${server.baseURL}/api/record-check`, method: 'POST', body: checkBody, headers: { cookie, 'content-type': 'application/json', 'origin': server.baseURL }, seconds: 2, connections })
     const healthRuns: autocannon.Result[] = []
     const meRuns: autocannon.Result[] = []

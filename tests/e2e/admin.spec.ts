@@ -20,7 +20,7 @@ test('an admin invites a tutor, who accepts from the link in the outbox', async 
   await guest.goto(link!)
   await expect(guest.getByText('You are invited as a tutor')).toBeVisible()
   await guest.getByLabel('Your name').fill('Fenna Corrivale')
-  await guest.getByLabel('Choose a password').fill('fenna-long-password')
+  await guest.getByLabel('Choose a password').fill('Moorland-Cobalt-Lyre-52')
   await guest.getByRole('button', { name: 'Create my account' }).click()
   await expect(guest).toHaveURL(/\/tutor$/)
   await expect(guest.getByRole('heading', { level: 1 })).toHaveText('Welcome, Fenna Corrivale')

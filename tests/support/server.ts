@@ -58,6 +58,8 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     NUXT_MAIL_CATCHER: '1',
     NUXT_MAIL_CATCHER_PORT: String(mailPort),
     NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD,
+    // production refuses to start without it; e-mailed links point here
+    NUXT_PUBLIC_SITE_URL: `http://127.0.0.1:${port}`,
     ...options.env,
   }
   const child = spawn(process.execPath, [entry], {

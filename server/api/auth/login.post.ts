@@ -5,10 +5,11 @@ const GENERIC = 'That e-mail and password do not match an active account.'
 
 export default defineEventHandler(async (event) => {
   const { email, password } = await readBodyAs(event, loginBody)
-  const ip = getRequestIP(event, { xForwardedFor: false }) ?? 'unknown'
+  const ip = clientAddress(event)
   const db = await useDb()
 
-  const throttle = await loginThrottle(db, email, ip)
+  // Reserved before the password is checked, atomically (server/utils/rate-limit.ts).
+  const throttle = await reserveLoginAttempt(db, email, ip)
   if (throttle.limited) {
     setResponseHeader(event, 'Retry-After', throttle.retryAfterSeconds)
     throw createError({
@@ -19,26 +20,33 @@ export default defineEventHandler(async (event) => {
     })
   }
 
-  const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst()
-  // Verify against a real hash even for unknown e-mails so timing does not
-  // reveal which addresses have accounts.
-  const ok = user
-    ? await verifyPassword(user.password_hash, password)
-    : (await verifyPassword(await dummyHash(), password), false)
+  try {
+    if (throttle.delayMs) await new Promise(r => setTimeout(r, throttle.delayMs))
 
-  if (!user || !ok || user.disabled) {
-    await recordLoginFailure(db, email, ip)
-    throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: GENERIC, data: { code: 'bad-credentials' } })
-  }
+    const user = await db.selectFrom('users').selectAll().where('email', '=', email).executeTakeFirst()
+    // Verify against a real hash even for unknown e-mails so timing does not
+    // reveal which addresses have accounts.
+    const ok = user
+      ? await verifyPassword(user.password_hash, password)
+      : (await verifyPassword(await dummyHash(), password), false)
 
-  await clearLoginFailures(db, email, ip)
-  await db.updateTable('users').set({ last_login_at: nowIso() }).where('id', '=', user.id).execute()
-  if (passwordNeedsReHash(user.password_hash)) {
-    await db.updateTable('users').set({ password_hash: await hashPassword(password) }).where('id', '=', user.id).execute()
+    if (!user || !ok || user.disabled) {
+      // the reservation stays as the failure
+      throw createError({ statusCode: 401, statusMessage: 'Unauthorized', message: GENERIC, data: { code: 'bad-credentials' } })
+    }
+
+    await clearLoginFailures(db, email, ip)
+    await db.updateTable('users').set({ last_login_at: nowIso() }).where('id', '=', user.id).execute()
+    if (passwordNeedsReHash(user.password_hash)) {
+      await db.updateTable('users').set({ password_hash: await hashPassword(password) }).where('id', '=', user.id).execute()
+    }
+    const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
+    await startSession(event, sessionUser)
+    return { user: sessionUser, home: homeFor(user.role) }
   }
-  const sessionUser = { id: user.id, email: user.email, name: user.name, role: user.role }
-  await replaceUserSession(event, { user: sessionUser, loggedInAt: nowIso() })
-  return { user: sessionUser, home: homeFor(user.role) }
+  finally {
+    settleLoginAttempt(ip)
+  }
 })
 
 let dummy: Promise<string> | undefined

@@ -54,6 +54,8 @@ export default defineEventHandler(async (event) => {
       }
       changes.cohorts = { from: before.map(b => b.cohort_id), to: body.cohortIds }
     }
+    // A new role or a disabled account ends every session the person has open.
+    if (changes.role || (changes.disabled && set.disabled === 1)) await revokeUserSessions(trx, id, now)
     for (const [field, change] of Object.entries(changes)) {
       await writeAudit(trx, { actorId: admin.id, action: `user.${field === 'cohorts' ? 'cohorts-changed' : `${field}-changed`}`, targetType: 'user', targetId: id, detail: change as Record<string, unknown> })
     }

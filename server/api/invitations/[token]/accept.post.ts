@@ -14,12 +14,15 @@ export default defineEventHandler(async (event) => {
     throw createError({ statusCode: 409, statusMessage: 'Conflict', message: 'An account with this e-mail already exists. Sign in instead, or reset the password.', data: { code: 'account-exists' } })
   }
 
+  assertPasswordAcceptable(body.password, { email: invitation.email, name: body.name })
+
   const passwordHash = await hashPassword(body.password)
   const now = nowIso()
   const user = await db.transaction().execute(async (trx) => {
-    // Mark used first and check it changed a row, so two tabs cannot both accept.
+    // Consume the link with one conditional update and check it changed a row:
+    // of several simultaneous uses exactly one succeeds.
     const used = await trx.updateTable('invitations').set({ used_at: now })
-      .where('id', '=', invitation.id).where('used_at', 'is', null).executeTakeFirst()
+      .where('id', '=', invitation.id).where('used_at', 'is', null).where('expires_at', '>', now).executeTakeFirst()
     if (Number(used.numUpdatedRows) !== 1) throw invitationGone('used')
     const created = await trx.insertInto('users').values({
       email: invitation.email,
@@ -38,6 +41,6 @@ export default defineEventHandler(async (event) => {
     return created
   })
 
-  await replaceUserSession(event, { user, loggedInAt: now })
+  await startSession(event, user)
   return { user, home: homeFor(user.role) }
 })

@@ -1,0 +1,98 @@
+// Issue 12, point 1: links in e-mails come from NUXT_PUBLIC_SITE_URL only; a
+// forged Host or X-Forwarded-* header changes nothing, and production refuses
+// to start without the setting.
+import { spawn } from 'node:child_process'
+import { request } from 'node:http'
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join, resolve } from 'node:path'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { DEMO, linkIn, signedIn, waitForMail } from '../support/client'
+import { freePort, startServer, TEST_SESSION_PASSWORD, type RunningServer } from '../support/server'
+
+const SITE = 'https://cyclodial.school.example'
+const FORGED = {
+  'host': 'attacker.example',
+  'x-forwarded-host': 'attacker.example',
+  'x-forwarded-proto': 'http',
+  'x-forwarded-for': '203.0.113.9',
+  // same-origin as far as the browser headers go: only Host is forged
+  'origin': SITE,
+  'sec-fetch-site': 'same-origin',
+}
+
+/** POST with a forged Host header (fetch would not send one). */
+function forgedPost(baseURL: string, path: string, body: unknown, cookie = ''): Promise<number> {
+  const url = new URL(path, baseURL)
+  const payload = JSON.stringify(body)
+  return new Promise((res, rej) => {
+    const req = request({
+      host: url.hostname,
+      port: url.port,
+      path: url.pathname,
+      method: 'POST',
+      headers: { ...FORGED, 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload), ...(cookie ? { cookie } : {}) },
+    }, (r) => {
+      r.resume()
+      r.on('end', () => res(r.statusCode ?? 0))
+    })
+    req.on('error', rej)
+    req.end(payload)
+  })
+}
+
+describe('links in e-mails', () => {
+  let server: RunningServer
+  beforeAll(async () => {
+    server = await startServer({ env: { NUXT_PUBLIC_SITE_URL: `${SITE}/` } })
+  })
+  afterAll(async () => {
+    await server?.stop()
+  })
+
+  it('builds reset and invitation links from the configured site, whatever Host the request forged', async () => {
+    const admin = await signedIn(server.baseURL, DEMO.admin)
+    expect(await forgedPost(server.baseURL, '/api/auth/forgot', { email: 'noor.bramblecote@cyclodial.test' })).toBe(200)
+    const reset = await waitForMail(admin, 'noor.bramblecote@cyclodial.test', /reset/i)
+    expect(linkIn(reset.text, '/reset').startsWith(`${SITE}/reset/`)).toBe(true)
+    expect(reset.text).not.toContain('attacker.example')
+
+    const login = await fetch(`${server.baseURL}/api/auth/login`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: DEMO.admin, password: 'cyclodial-demo' }) })
+    const cookie = login.headers.getSetCookie().map(c => c.split(';')[0]).join('; ')
+    expect(await forgedPost(server.baseURL, '/api/admin/invitations', { email: 'forged.host@cyclodial.test', role: 'lecturer' }, cookie)).toBe(201)
+    const invite = await waitForMail(admin, 'forged.host@cyclodial.test', /invited/i)
+    expect(linkIn(invite.text, '/invite').startsWith(`${SITE}/invite/`)).toBe(true)
+    expect(invite.text).not.toContain('attacker.example')
+  })
+})
+
+describe('start-up without a site URL', () => {
+  async function exitOf(env: Record<string, string>): Promise<{ code: number | null, out: string }> {
+    const dir = mkdtempSync(join(tmpdir(), 'cyclodial-nosite-'))
+    const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
+      env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(await freePort()), NUXT_DB_PATH: join(dir, 'x.sqlite'), NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD, NUXT_PUBLIC_SITE_URL: '', ...env },
+      stdio: ['ignore', 'pipe', 'pipe'],
+    })
+    let out = ''
+    child.stdout.on('data', (d) => {
+      out += String(d)
+    })
+    child.stderr.on('data', (d) => {
+      out += String(d)
+    })
+    const timer = setTimeout(() => child.kill('SIGKILL'), 15_000)
+    const code = await new Promise<number | null>(r => child.once('exit', r))
+    clearTimeout(timer)
+    rmSync(dir, { recursive: true, force: true })
+    return { code, out }
+  }
+
+  it('refuses to start in production without NUXT_PUBLIC_SITE_URL, or with one that is not an http(s) URL', async () => {
+    const missing = await exitOf({})
+    expect(missing.code).toBe(1)
+    expect(missing.out).toMatch(/NUXT_PUBLIC_SITE_URL/)
+    const bad = await exitOf({ NUXT_PUBLIC_SITE_URL: 'javascript:alert(1)' })
+    expect(bad.code).toBe(1)
+    expect(bad.out).toMatch(/NUXT_PUBLIC_SITE_URL/)
+  })
+})
