@@ -45,17 +45,37 @@ const hit = (t: RawToken[], i: number, len: number, sem: Sem | null): Hit => ({
 function phrase(t: RawToken[], i: number, slots: ReadonlyArray<readonly string[] | string>): number {
   let j = i
   for (const slot of slots) {
-    const options = typeof slot === 'string' ? [slot] : slot
-    if (!options.includes(w(t, j))) return 0
+    const x = w(t, j)
+    if (typeof slot === 'string' ? slot !== x : !slot.includes(x)) return 0
     j++
   }
   return j - i
 }
 
+type Table<T> = ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, T]>
+/** Each table's entries by the words they can start with: the parser runs on every keystroke and request. */
+const BY_FIRST = new WeakMap<object, Map<string, Array<readonly [ReadonlyArray<readonly string[] | string>, unknown]>>>()
+function byFirstWord<T>(table: Table<T>) {
+  let index = BY_FIRST.get(table)
+  if (!index) {
+    index = new Map()
+    for (const entry of table) {
+      const first = entry[0][0]!
+      for (const word of typeof first === 'string' ? [first] : first) {
+        const list = index.get(word) ?? []
+        list.push(entry)
+        index.set(word, list)
+      }
+    }
+    BY_FIRST.set(table, index)
+  }
+  return index as Map<string, Array<readonly [ReadonlyArray<readonly string[] | string>, T]>>
+}
+
 /** Try each phrase; return the longest match. */
-function longest<T>(t: RawToken[], i: number, table: ReadonlyArray<readonly [ReadonlyArray<readonly string[] | string>, T]>): [number, T] | null {
+function longest<T>(t: RawToken[], i: number, table: Table<T>): [number, T] | null {
   let best: [number, T] | null = null
-  for (const [slots, value] of table) {
+  for (const [slots, value] of byFirstWord(table).get(w(t, i)) ?? []) {
     const n = phrase(t, i, slots)
     if (n > 0 && (!best || n > best[0])) best = [n, value]
   }
@@ -397,6 +417,7 @@ const NEEDS_GAZE = ['superior', 'inferior']
 const RIGHT = ['right', 'rt', 'r', 'dextroversion']
 const LEFT = ['left', 'lt', 'l', 'laevoversion', 'levoversion']
 const SINGLE_LETTER_SIDES = ['r', 'l', 'rt', 'lt']
+const SIDES_AND_LEVELS = new Set([...UP, ...DOWN, ...RIGHT, ...LEFT])
 const INDICATORS = ['gaze', 'looking', 'look', 'looks', 'version']
 const DIRECTION_LIKE = (x: string): boolean =>
   EX_WORDS.has(x) || IN_WORDS.has(x) || ['in', 'nil', 'none', 'no', 'normal'].includes(x)
@@ -457,10 +478,10 @@ function gazePhrase(t: RawToken[], i: number): { len: number, gaze: Gaze } | nul
     else if ((x === 'and' || x === '&' || x === 'to') && (v || h || indicated)) {
       // joins "up and right", "up to the right", "gaze to the left"
       if (next === 'the') j++
-      if (![...UP, ...DOWN, ...RIGHT, ...LEFT].includes(w(t, j + 1))) break
+      if (!SIDES_AND_LEVELS.has(w(t, j + 1))) break
       if (x === 'to') indicated = true
     }
-    else if (x === 'to' && next === 'the' && [...RIGHT, ...LEFT].includes(w(t, j + 2))) {
+    else if (x === 'to' && next === 'the' && (RIGHT.includes(w(t, j + 2)) || LEFT.includes(w(t, j + 2)))) {
       // "to the right" on its own
       indicated = true
       j++
