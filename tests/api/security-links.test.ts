@@ -51,7 +51,8 @@ describe('links in e-mails', () => {
   })
 
   it('builds reset and invitation links from the configured site, whatever Host the request forged', async () => {
-    const admin = await signedIn(server.baseURL, DEMO.admin)
+    // the browser is on the configured site, so its Origin is the site's (the server only listens on the test port)
+    const admin = await signedIn(server.baseURL, DEMO.admin, SITE)
     expect(await forgedPost(server.baseURL, '/api/auth/forgot', { email: 'noor.bramblecote@cyclodial.test' })).toBe(200)
     const reset = await waitForMail(admin, 'noor.bramblecote@cyclodial.test', /reset/i)
     expect(linkIn(reset.text, '/reset').startsWith(`${SITE}/reset/`)).toBe(true)

@@ -5,7 +5,8 @@ export interface Reply<T = any> { status: number, body: T, headers: Headers }
 
 export class Client {
   private cookies = new Map<string, string>()
-  constructor(readonly baseURL: string) {}
+  /** `siteOrigin`: the public origin the server is configured with, when it is not the address it listens on. */
+  constructor(readonly baseURL: string, readonly siteOrigin?: string) {}
 
   async request<T = any>(method: string, path: string, body?: unknown, init: { raw?: string, headers?: Record<string, string> } = {}): Promise<Reply<T>> {
     const headers: Record<string, string> = { accept: 'application/json', ...this.originFor(method), ...init.headers }
@@ -38,7 +39,7 @@ export class Client {
 
   /** Browsers send Origin on every POST, PUT, PATCH and DELETE (Fetch standard). */
   private originFor(method: string): Record<string, string> {
-    return ['GET', 'HEAD'].includes(method.toUpperCase()) ? {} : { origin: new URL(this.baseURL).origin }
+    return ['GET', 'HEAD'].includes(method.toUpperCase()) ? {} : { origin: this.siteOrigin ?? new URL(this.baseURL).origin }
   }
 
   /** A multipart upload (e.g. a roster file), with this client's session. */
@@ -80,8 +81,8 @@ export const DEMO = {
   student: 'student@cyclodial.test',
 } as const
 
-export async function signedIn(baseURL: string, email: string): Promise<Client> {
-  const client = new Client(baseURL)
+export async function signedIn(baseURL: string, email: string, siteOrigin?: string): Promise<Client> {
+  const client = new Client(baseURL, siteOrigin)
   await client.signIn(email)
   return client
 }
