@@ -11,7 +11,7 @@ const Host = defineComponent({
     const open = ref(false)
     const log = ref<string[]>([])
     return () => h('div', [
-      h('button', { 'id': 'opener', 'onClick': () => (open.value = true) }, 'Release results'),
+      h('button', { id: 'opener', onClick: () => (open.value = true) }, 'Release results'),
       h('button', { id: 'elsewhere' }, 'Elsewhere'),
       h(UiConfirm, {
         open: open.value,
