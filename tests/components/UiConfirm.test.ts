@@ -91,6 +91,21 @@ describe('UiConfirm', () => {
     wrapper.unmount()
   })
 
+  it('returns focus to the element it is given when nothing was focused as it opened', async () => {
+    const target = document.createElement('select')
+    document.body.appendChild(target)
+    ;(document.activeElement as HTMLElement | null)?.blur?.()
+    const wrapper = await mountSuspended(UiConfirm, { props: { open: false, title: 'Make Rafe a lecturer?', confirmLabel: 'Change the role', returnFocus: target }, attachTo: document.body })
+    await wrapper.setProps({ open: true })
+    await settle()
+    expect(document.activeElement).toBe(wrapper.findAll('button')[0]!.element)
+    await wrapper.setProps({ open: false })
+    await settle()
+    expect(document.activeElement).toBe(target)
+    wrapper.unmount()
+    target.remove()
+  })
+
   it('cannot be cancelled or confirmed twice while busy', async () => {
     const wrapper = await mountSuspended(UiConfirm, { props: { open: true, title: 'Disable the account?', confirmLabel: 'Disable', busy: true, tone: 'primary' }, attachTo: document.body })
     await settle()
