@@ -164,6 +164,10 @@ test('removing an item, finishing a quiz and releasing results ask first; not st
   }
   await expect(tutor.getByRole('row', { name: /Tamsin Arkwell/ })).toContainText('0%')
   await tutor.screenshot({ path: 'test-results/screenshots/results-not-started-1280x720.png', fullPage: true })
+  await tutor.setViewportSize({ width: 820, height: 1180 })
+  await expect(tutor.getByTestId('total-not-started').first()).toBeAttached()
+  await tutor.screenshot({ path: 'test-results/screenshots/results-not-started-820x1180.png', fullPage: true })
+  await tutor.setViewportSize({ width: 1280, height: 720 })
   const download = tutor.waitForEvent('download')
   await tutor.getByRole('link', { name: 'Download CSV' }).click()
   const csv = Papa.parse<string[]>(readFileSync(await (await download).path(), 'utf8').replace(/^\uFEFF/, '').trim()).data

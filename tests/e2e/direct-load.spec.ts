@@ -54,6 +54,7 @@ const REVIEW_PAGES: Route[] = [
   { path: '/review/attempts/:review', heading: /./ },
   { path: '/review/sets', heading: /./ },
   { path: '/casebook', heading: /./ },
+  { path: '/casebook/preview?type=engine&templateId=normal-standard', heading: /^Preview: / },
 ]
 
 const ROLES: { who: string, email: string, ids: (r: APIRequestContext) => Promise<Ids>, routes: Route[] }[] = [
@@ -92,20 +93,25 @@ const ROLES: { who: string, email: string, ids: (r: APIRequestContext) => Promis
       const week3 = quizzes.items.find(q => q.title === 'Week 3: writing the record')!
       const detail = await json<{ items: { feedback?: { attemptId: number } }[] }>(request, `/api/quizzes/${week3.id}`)
       const history = await json<{ items: { attemptId: number, caseId: number }[] }>(request, '/api/practice/history')
+      // Jory is part-way through the demo's open quiz (db/seed/quizzes.ts), so its item page opens
+      const week6 = quizzes.items.find(q => q.title === 'Week 6: patients who look different')!
+      const open = await json<{ items: { id: number }[] }>(request, `/api/quizzes/${week6.id}`)
       const marked = detail.items.find(i => i.feedback)
       expect(marked, 'a marked item on the released demo quiz').toBeTruthy()
       expect(history.items.length, 'demo practice history').toBeGreaterThan(0)
-      return { quiz: week3.id, attempt: marked!.feedback!.attemptId, practiceAttempt: history.items[0]!.attemptId, case: history.items[0]!.caseId }
+      return { quiz: week3.id, open: week6.id, openItem: open.items[0]!.id, attempt: marked!.feedback!.attemptId, practiceAttempt: history.items[0]!.attemptId, case: history.items[0]!.caseId }
     },
     routes: [
       { path: '/student', heading: /./ },
       { path: '/student/quizzes', heading: /./ },
       { path: '/student/quizzes/:quiz', heading: /^Week 3: writing the record$/ },
       { path: '/student/quizzes/:quiz/attempts/:attempt', heading: /./ },
+      { path: '/student/quizzes/:open/items/:openItem', heading: /^Item 1$/ },
       { path: '/practice', heading: /./ },
       { path: '/practice/history', heading: /./ },
       { path: '/practice/:case', heading: /./ },
       { path: '/practice/attempts/:practiceAttempt', heading: /./ },
+      { path: '/fundus/cases/:case', heading: /./ },
       { path: '/fundus/photos', heading: /./ },
     ],
   },
