@@ -24,8 +24,9 @@ export function resultsPage(columns: ItemColumn[], rows: StudentResult[], query:
   const key = (r: StudentResult): string | number => {
     if (itemSort) return r.items[Number(itemSort[1])]?.earned ?? -1
     switch (query.sort) {
-      case 'total': return r.earned
-      case 'slips': return r.slips
+      // a student who never started has no total or slips: below any score, even 0
+      case 'total': return r.status === 'not-started' ? -1 : r.earned
+      case 'slips': return r.status === 'not-started' ? -1 : r.slips
       case 'time': return r.timeTakenMs ?? -1
       case 'status': return r.status
       default: return r.name.toLowerCase()

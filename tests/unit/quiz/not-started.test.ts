@@ -48,6 +48,13 @@ describe('not started is not zero', () => {
     expect(page.summary).toEqual({ students: 4, started: 3, finished: 2, meanScore: 0.75 })
   })
 
+  it('sorts a student who never started below a score of 0', () => {
+    const asc = resultsPage(columns, rows, { sort: 'total', dir: 'asc', page: 1, pageSize: 25 }).items.map(r => r.name)
+    expect(asc).toEqual(['S3', 'S4', 'S2', 'S1'])
+    const desc = resultsPage(columns, rows, { sort: 'total', dir: 'desc', page: 1, pageSize: 25 }).items.map(r => r.name)
+    expect(desc.at(-1)).toBe('S3')
+  })
+
   it('shows time taken in minutes and seconds', () => {
     expect(formatDuration(725_000)).toBe('12 min 05 s')
     expect(formatDuration(4_500_000)).toBe('75 min 00 s')
