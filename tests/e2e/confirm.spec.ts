@@ -39,16 +39,20 @@ async function openDialog(page: Page, title: string | RegExp): Promise<Locator> 
 test('an administrator confirms a role change and disabling an account; Escape changes nothing', async ({ page }) => {
   await signIn(page, 'admin@cyclodial.test')
   await page.goto('/admin/users')
+  await page.waitForLoadState('networkidle')
   await page.getByLabel('Search name or e-mail').fill('Rafe Tolliver')
   const row = page.getByRole('row', { name: /Rafe Tolliver/ })
   await expect(row).toHaveCount(1)
   const select = row.getByLabel('Role of Rafe Tolliver')
+  // the filtered list has arrived (debounced search) before anything is changed
+  await page.waitForLoadState('networkidle')
   let patches = 0
   page.on('request', (r) => {
     if (r.method() === 'PATCH' && r.url().includes('/api/admin/users/')) patches++
   })
 
   // Escape: nothing sent, the select shows the role again, focus back on the select
+  await select.focus()
   await select.selectOption('lecturer')
   let dialog = await openDialog(page, 'Make Rafe Tolliver a lecturer?')
   await expect(dialog).toContainText('changes from student to lecturer')
@@ -91,6 +95,7 @@ test('removing an item, finishing a quiz and releasing results ask first; not st
   const tutor = await browser.newPage()
   await signIn(tutor, 'tutor@cyclodial.test')
   await tutor.goto('/quizzes')
+  await tutor.waitForLoadState('networkidle')
   await tutor.getByRole('button', { name: 'New quiz' }).click()
   await tutor.getByLabel('Title').fill(TITLE)
   await tutor.getByLabel('Opens').fill(local(-5))
@@ -129,9 +134,11 @@ test('removing an item, finishing a quiz and releasing results ask first; not st
   const student = await browser.newPage()
   await signIn(student, 'student@cyclodial.test')
   await student.goto(`/student/quizzes/${quizId}`)
+  await student.waitForLoadState('networkidle')
   await student.getByRole('button', { name: 'Start the quiz' }).click()
   await expect(student).toHaveURL(/\/items\/\d+$/)
   await student.goto(`/student/quizzes/${quizId}`)
+  await student.waitForLoadState('networkidle')
   const finish = student.getByRole('button', { name: 'Finish the quiz' })
   await finish.click()
   dialog = await openDialog(student, 'Finish the quiz now?')
@@ -151,6 +158,7 @@ test('removing an item, finishing a quiz and releasing results ask first; not st
   await tutor.getByRole('button', { name: 'Save settings' }).click()
   await expect(tutor.getByText('Settings saved.')).toBeVisible()
   await tutor.goto(`/quizzes/${quizId}/results`)
+  await tutor.waitForLoadState('networkidle')
   const kestrel = DEMO_PEOPLE.filter(p => p.role === 'student' && p.cohort === 'Kestrel cohort')
   expect(kestrel.length).toBe(6)
 
