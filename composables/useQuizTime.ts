@@ -24,10 +24,10 @@ export function fromLocalInput(value: string): string | null {
 export function formatDuration(ms: number | null | undefined): string {
   if (ms === null || ms === undefined) return '—'
   const total = Math.max(0, Math.round(ms / 1000))
-  const h = Math.floor(total / 3600)
-  const m = Math.floor((total % 3600) / 60)
+  // minutes and seconds, however long (a sitting is counted in minutes): "12 min 05 s", "75 min 00 s"
+  const m = Math.floor(total / 60)
   const s = total % 60
-  return h ? `${h} h ${pad(m)} min` : m ? `${m} min ${pad(s)} s` : `${s} s`
+  return m ? `${m} min ${pad(s)} s` : `${s} s`
 }
 
 export const PHASE_LABELS = { draft: 'Draft', upcoming: 'Scheduled', open: 'Open', closed: 'Closed' } as const

@@ -257,7 +257,10 @@ export interface QuizResultsResponse {
   total: number
   page: number
   pageSize: number
-  summary: { students: number, started: number, finished: number, meanScore: number }
+  /** meanScore: the mean of those who finished; null while nobody has. */
+  summary: { students: number, started: number, finished: number, meanScore: number | null }
+  /** What *Release results* would do: students e-mailed (all of the quiz's cohorts, those who never sat included). Null unless the caller may release and it has not been released. */
+  release?: { students: number, neverSat: number } | null
 }
 
 /** One quiz attempt opened for review (staff always; the student, marks only once feedback is open). */

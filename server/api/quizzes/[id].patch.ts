@@ -39,11 +39,13 @@ export default defineEventHandler(async (event) => {
 
   // a tutor changes only the cohorts they teach; other cohorts stay assigned
   let cohortIds: number[] | undefined
+  let previousCohorts: number[] = []
   if (body.cohortIds) {
     const assignable = await assignableCohortIds(db, user)
     const refused = body.cohortIds.filter(c => !assignable.includes(c))
     if (refused.length) badRequest([{ path: 'cohortIds', message: `You cannot assign cohort(s) ${refused.join(', ')}: assign only cohorts you teach.` }])
     const current = await quizCohortIds(db, id)
+    previousCohorts = current
     cohortIds = [...new Set([...current.filter(c => !assignable.includes(c)), ...body.cohortIds])]
   }
 
@@ -87,7 +89,9 @@ export default defineEventHandler(async (event) => {
       }
     }
     const { updated_at: _u, ...changed } = set
-    await writeAudit(trx, { actorId: user.id, action: 'quiz.updated', targetType: 'quiz', targetId: id, detail: { ...changed, ...(cohortIds ? { cohortIds } : {}) } })
+    // the values before, field by field, so the audit log can say old → new
+    const previous = Object.fromEntries(Object.keys(changed).map(k => [k, quiz[k as keyof typeof quiz] ?? null]))
+    await writeAudit(trx, { actorId: user.id, action: 'quiz.updated', targetType: 'quiz', targetId: id, detail: { ...changed, ...(cohortIds ? { cohortIds, previousCohortIds: previousCohorts } : {}), previous } })
   })
   const fresh = await db.selectFrom('quizzes').selectAll().where('id', '=', id).executeTakeFirstOrThrow()
   return staffQuizDetail(db, user, fresh)

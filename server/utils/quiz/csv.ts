@@ -36,7 +36,9 @@ export function resultsCsv(columns: ItemColumn[], rows: StudentResult[]): string
         line.push(m ? round2(m.score * m.weight) : '')
       }
     }
-    line.push(r.slips, round2(r.earned), round2(r.possible), round2(r.score * 100))
+    // a student who never started has no score: empty cells, never 0 (the Status column says why)
+    if (r.status === 'not-started') line.push('', '', round2(r.possible), '')
+    else line.push(r.slips, round2(r.earned), round2(r.possible), round2(r.score * 100))
     return line
   })
   return writeCsv(header, data, { bom: true })

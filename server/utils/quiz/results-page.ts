@@ -24,8 +24,9 @@ export function resultsPage(columns: ItemColumn[], rows: StudentResult[], query:
   const key = (r: StudentResult): string | number => {
     if (itemSort) return r.items[Number(itemSort[1])]?.earned ?? -1
     switch (query.sort) {
-      case 'total': return r.earned
-      case 'slips': return r.slips
+      // a student who never started has no total or slips: below any score, even 0
+      case 'total': return r.status === 'not-started' ? -1 : r.earned
+      case 'slips': return r.status === 'not-started' ? -1 : r.slips
       case 'time': return r.timeTakenMs ?? -1
       case 'status': return r.status
       default: return r.name.toLowerCase()
@@ -57,7 +58,15 @@ export function resultsPage(columns: ItemColumn[], rows: StudentResult[], query:
       students: rows.length,
       started: rows.filter(r => r.status !== 'not-started').length,
       finished: rows.filter(r => r.status === 'finished').length,
-      meanScore: rows.filter(r => r.status !== 'not-started').reduce((a, r, _, arr) => a + r.score / arr.length, 0),
+      // only those who finished: a student who never started has no score (not 0), and
+      // one still sitting has not handed in yet
+      meanScore: meanOfFinished(rows),
     },
   }
+}
+
+/** Mean score of the students who finished; null while nobody has. */
+export function meanOfFinished(rows: Pick<StudentResult, 'status' | 'score'>[]): number | null {
+  const done = rows.filter(r => r.status === 'finished')
+  return done.length ? done.reduce((a, r) => a + r.score, 0) / done.length : null
 }

@@ -1,6 +1,6 @@
 import { idParam } from '#shared/schemas/admin'
 import { resultsQuery } from '#shared/schemas/quiz'
-import { quizForStaff, quizReach } from '~~/server/utils/quiz/access'
+import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { quizSettings } from '~~/server/utils/quiz/present'
 import { computeResults } from '~~/server/utils/quiz/results'
@@ -13,5 +13,13 @@ export default defineEventHandler(async (event) => {
   const db = await useDb()
   const quiz = await quizForStaff(db, user, id)
   const { columns, rows } = await computeResults(db, quiz, new Date(), await quizReach(db, user, id))
-  return { quiz: quizSettings(quiz), ...resultsPage(columns, rows, query) }
+  // what releasing would do (for the confirmation): every student of the quiz's cohorts
+  // is e-mailed, those who never sat it included; only whoever may release is told
+  let release: { students: number, neverSat: number } | null = null
+  if (managesQuiz(user, quiz) && !quiz.released_at) {
+    const everyone = new Set((await quizStudents(db, id)).map(s => s.id))
+    const sat = await db.selectFrom('quiz_sittings').select('student_id').where('quiz_id', '=', id).execute()
+    release = { students: everyone.size, neverSat: [...everyone].filter(s => !sat.some(x => x.student_id === s)).length }
+  }
+  return { quiz: quizSettings(quiz), ...resultsPage(columns, rows, query), release }
 })
