@@ -13,7 +13,7 @@ export interface A11yPage {
   file: string
   /** what the check is about, for the test title */
   name: string
-  /** the path to open, or a way to find it once signed in (then the page is opened) */
+  /** the path to open, or a way to find it once signed in (then the page is opened, unless the finder already went there) */
   path: string | ((page: Page) => Promise<string>)
   /** who signs in: one demo account per role, or a named demo student for pages that need a history */
   as: Who
@@ -37,7 +37,10 @@ export const HISTORY_STUDENT = 'oisin.marrable@cyclodial.test'
 export async function linksOn(page: Page, path: string): Promise<string[]> {
   await page.goto(path)
   await page.waitForLoadState('networkidle')
-  return page.locator('main a[href]').evaluateAll(as => as.map(a => new URL((a as HTMLAnchorElement).href).pathname))
+  return page.locator('main a[href]').evaluateAll(as => as.map((a) => {
+    const url = new URL((a as HTMLAnchorElement).href)
+    return url.pathname + url.search
+  }))
 }
 
 /** The first link on `path` matching `pattern`; fails the test if there is none. */
@@ -79,6 +82,21 @@ async function openQuizItem(page: Page): Promise<string> {
   return firstLink(page, quiz, /^\/student\/quizzes\/\d+\/items\/\d+$/)
 }
 
+/**
+ * A student's patients, opened as a tutor does: from the results table, by following the link.
+ * (Loaded directly, this page currently shows nothing: its item cases are fetched without the
+ * session cookie during server rendering — reported to the screens work, not an accessibility matter.)
+ */
+async function studentsPatients(page: Page): Promise<string> {
+  const path = await linkThrough(page, '/quizzes', /^\/quizzes\/\d+\/results$/, /^\/quizzes\/\d+\/students\/\d+$/)
+  const results = path.replace(/\/students\/\d+$/, '/results')
+  await page.goto(results)
+  await page.waitForLoadState('networkidle')
+  await page.locator(`main a[href="${path}"]`).first().click()
+  await expect(page).toHaveURL(new RegExp(`${path}$`))
+  return path
+}
+
 const bench = async (page: Page) => {
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
   await page.waitForLoadState('networkidle')
@@ -111,10 +129,10 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/quizzes/index.vue', name: 'quizzes', path: '/quizzes', as: 'tutor' },
   { file: 'pages/quizzes/[id]/index.vue', name: 'a quiz (builder)', path: p => firstLink(p, '/quizzes', /^\/quizzes\/\d+$/), as: 'tutor' },
   { file: 'pages/quizzes/[id]/results.vue', name: 'the results table', path: p => firstLink(p, '/quizzes', /^\/quizzes\/\d+\/results$/), as: 'tutor' },
-  { file: 'pages/quizzes/[id]/students/[studentId].vue', name: "a student's patients", path: p => linkThrough(p, '/quizzes', /^\/quizzes\/\d+\/results$/, /^\/quizzes\/\d+\/students\/\d+$/), as: 'tutor' },
+  { file: 'pages/quizzes/[id]/students/[studentId].vue', name: "a student's patients", path: studentsPatients, as: 'tutor' },
   { file: 'pages/quizzes/[id]/attempts/[attemptId].vue', name: 'a quiz attempt', path: p => linkThrough(p, '/quizzes', /^\/quizzes\/\d+\/results$/, /^\/quizzes\/\d+\/attempts\/\d+$/), as: 'tutor' },
   { file: 'pages/casebook/index.vue', name: 'casebook', path: '/casebook', as: 'tutor' },
-  { file: 'pages/casebook/preview.vue', name: 'casebook preview', path: p => linksOn(p, '/casebook').then(ls => ls.find(l => l === '/casebook/preview') ?? '/casebook/preview'), as: 'tutor', ready: bench },
+  { file: 'pages/casebook/preview.vue', name: 'casebook preview', path: p => firstLink(p, '/casebook', /^\/casebook\/preview\?/), as: 'tutor', ready: bench },
   { file: 'pages/fundus/photos/index.vue', name: 'fundus photographs', path: '/fundus/photos', as: 'tutor' },
   { file: 'pages/review/index.vue', name: 'slip patterns', path: '/review', as: 'tutor' },
   { file: 'pages/review/attempts/index.vue', name: 'slip pattern attempts', path: '/review/attempts', as: 'tutor' },
@@ -146,4 +164,8 @@ export const PAGES: A11yPage[] = [
 /** Pages the run does not open, each with the reason. */
 export const NOT_VISITED: Record<string, string> = {
   'pages/index.vue': 'only sends each person on to their home page, which is checked',
+  'pages/fundus/photos/[id].vue': 'needs an uploaded fundus photograph; the demo school ships none (not yet set up by this run)',
+  'pages/review/sets/[id].vue': 'needs a practice set sent from slip patterns; the demo school has none (not yet set up by this run)',
+  'pages/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
+  'pages/student/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
 }
