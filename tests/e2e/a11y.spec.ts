@@ -39,6 +39,8 @@ for (const entry of PAGES) {
     if (here.pathname + here.search !== path) await page.goto(path)
     await page.waitForLoadState('networkidle')
     await expect(page.getByRole('heading', { level: 1 }).first()).toBeVisible()
+    // each page names itself in the title (WCAG 2.1 SC 2.4.2 Page Titled)
+    await expect(page).toHaveTitle(/^.+ · Cyclodial$/)
     if (entry.ready) await entry.ready(page)
 
     const results = await new AxeBuilder({ page }).withTags(WCAG_TAGS).analyze()
@@ -51,3 +53,28 @@ for (const entry of PAGES) {
     expect(found, `${path}`).toEqual([])
   })
 }
+
+test('a refused sign-in moves focus to the first field in error', async ({ page }) => {
+  await page.goto('/login')
+  await page.getByRole('button', { name: 'Sign in' }).click()
+  const invalid = page.locator('[aria-invalid="true"]')
+  await expect(invalid.first()).toBeVisible()
+  await expect(invalid.first()).toBeFocused()
+  // the message is tied to the field (WCAG 2.1 SC 3.3.1 Error Identification)
+  const described = await invalid.first().getAttribute('aria-describedby')
+  expect(described).toBeTruthy()
+  await expect(page.locator(`#${described!.split(' ')[0]}`)).toHaveClass(/field-error/)
+})
+
+test('a refused record check moves focus to the first field in error', async ({ page }) => {
+  await signIn(page, 'tutor@cyclodial.test')
+  await page.goto('/record-checker')
+  await page.waitForLoadState('networkidle')
+  await page.getByRole('button', { name: 'Check record' }).click()
+  const invalid = page.locator('[aria-invalid="true"]')
+  await expect(invalid.first()).toBeVisible()
+  await expect(invalid.first()).toBeFocused()
+  const described = await invalid.first().getAttribute('aria-describedby')
+  expect(described).toBeTruthy()
+  await expect(page.locator(`#${described!.split(' ')[0]}`)).toHaveClass(/field-error/)
+})

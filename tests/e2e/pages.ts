@@ -4,6 +4,7 @@
 // Ids of the demo school are found through the UI (links on list pages) or the API,
 // never written in.
 import { expect, type Page } from '@playwright/test'
+import { syntheticPng } from '../support/fundus'
 import { sameOrigin } from './helpers'
 
 export type Who = 'signed-out' | 'student' | 'tutor' | 'lecturer' | 'admin'
@@ -97,6 +98,40 @@ async function studentsPatients(page: Page): Promise<string> {
   return path
 }
 
+/**
+ * A fundus photograph of the lecturer's own, uploaded through the API (the demo school ships
+ * none). A lecturer's upload is shared with no cohort, so no other spec's lists change.
+ */
+async function ownPhoto(page: Page): Promise<string> {
+  await page.goto('/fundus/photos')
+  const res = await page.request.post('/api/fundus/photos', {
+    headers: sameOrigin(page),
+    multipart: {
+      file: { name: 'a11y-fundus.png', mimeType: 'image/png', buffer: await syntheticPng() },
+      title: 'Accessibility check fundus',
+      eye: 'RE',
+      consent: 'yes',
+    },
+  })
+  expect(res.status()).toBe(201)
+  return `/fundus/photos/${(await res.json()).id}`
+}
+
+/**
+ * A practice set sent by the tutor to the demo student used for history pages only (found by
+ * name in a results table), through the API as the slip-patterns screen sends it.
+ */
+async function practiceSet(page: Page): Promise<string> {
+  const results = await firstLink(page, '/quizzes', /^\/quizzes\/\d+\/results$/)
+  await page.goto(results)
+  await page.waitForLoadState('networkidle')
+  const href = await page.getByRole('link', { name: 'Oisín Marrable' }).first().getAttribute('href')
+  const learnerId = Number(href!.match(/\/students\/(\d+)$/)![1])
+  const res = await page.request.post('/api/review/practice-sets', { headers: sameOrigin(page), data: { learnerIds: [learnerId], focus: 'image-recorded', note: 'Accessibility check' } })
+  expect(res.status()).toBe(201)
+  return `/review/sets/${(await res.json()).id}`
+}
+
 const bench = async (page: Page) => {
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
   await page.waitForLoadState('networkidle')
@@ -129,7 +164,7 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/quizzes/index.vue', name: 'quizzes', path: '/quizzes', as: 'tutor' },
   { file: 'pages/quizzes/[id]/index.vue', name: 'a quiz (builder)', path: p => firstLink(p, '/quizzes', /^\/quizzes\/\d+$/), as: 'tutor' },
   { file: 'pages/quizzes/[id]/results.vue', name: 'the results table', path: p => firstLink(p, '/quizzes', /^\/quizzes\/\d+\/results$/), as: 'tutor' },
-  { file: 'pages/quizzes/[id]/students/[studentId].vue', name: "a student's patients", path: studentsPatients, as: 'tutor' },
+  { file: 'pages/quizzes/[id]/students/[studentId].vue', name: 'a student\'s patients', path: studentsPatients, as: 'tutor' },
   { file: 'pages/quizzes/[id]/attempts/[attemptId].vue', name: 'a quiz attempt', path: p => linkThrough(p, '/quizzes', /^\/quizzes\/\d+\/results$/, /^\/quizzes\/\d+\/attempts\/\d+$/), as: 'tutor' },
   { file: 'pages/casebook/index.vue', name: 'casebook', path: '/casebook', as: 'tutor' },
   { file: 'pages/casebook/preview.vue', name: 'casebook preview', path: p => firstLink(p, '/casebook', /^\/casebook\/preview\?/), as: 'tutor', ready: bench },
@@ -138,6 +173,7 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/review/attempts/index.vue', name: 'slip pattern attempts', path: '/review/attempts', as: 'tutor' },
   { file: 'pages/review/attempts/[id].vue', name: 'an attempt replayed', path: p => firstLink(p, '/review/attempts', /^\/review\/attempts\/\d+$/), as: 'tutor', ready: bench },
   { file: 'pages/review/sets/index.vue', name: 'practice sets', path: '/review/sets', as: 'tutor' },
+  { file: 'pages/review/sets/[id].vue', name: 'a practice set', path: practiceSet, as: 'tutor' },
   { file: 'pages/roster.vue', name: 'roster', path: '/roster', as: 'tutor' },
   { file: 'pages/record-checker.vue', name: 'record checker', path: '/record-checker', as: 'tutor' },
   { file: 'pages/practice/index.vue', name: 'practice', path: '/practice', as: 'tutor' },
@@ -148,6 +184,7 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/quizzes/index.vue', name: 'quizzes', path: '/quizzes', as: 'lecturer' },
   { file: 'pages/quizzes/[id]/results.vue', name: 'the results table', path: p => firstLink(p, '/quizzes', /^\/quizzes\/\d+\/results$/), as: 'lecturer' },
   { file: 'pages/casebook/index.vue', name: 'casebook', path: '/casebook', as: 'lecturer' },
+  { file: 'pages/fundus/photos/[id].vue', name: 'a fundus photograph (reference marker)', path: ownPhoto, as: 'lecturer', ready: bench },
   { file: 'pages/record-checker.vue', name: 'record checker', path: '/record-checker', as: 'lecturer' },
 
   // administrator
@@ -164,8 +201,6 @@ export const PAGES: A11yPage[] = [
 /** Pages the run does not open, each with the reason. */
 export const NOT_VISITED: Record<string, string> = {
   'pages/index.vue': 'only sends each person on to their home page, which is checked',
-  'pages/fundus/photos/[id].vue': 'needs an uploaded fundus photograph; the demo school ships none (not yet set up by this run)',
-  'pages/review/sets/[id].vue': 'needs a practice set sent from slip patterns; the demo school has none (not yet set up by this run)',
   'pages/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
   'pages/student/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
 }
