@@ -2,6 +2,8 @@ import type { Config } from 'tailwindcss'
 
 // Cyclodial's design tokens. Colours are named for what they mean on screen,
 // not for a hue, so components never hard-code a hex value.
+// Text tones are chosen to meet WCAG 2.1 AA contrast on every background token
+// they sit on (tests/unit/a11y/palette.test.ts checks each pair).
 export default {
   content: [
     './app.vue',
@@ -15,15 +17,15 @@ export default {
   theme: {
     extend: {
       colors: {
-        ink: { DEFAULT: '#15232d', soft: '#3c4e5a', faint: '#6b7c87' },
+        ink: { DEFAULT: '#15232d', soft: '#3c4e5a', faint: '#58666f' },
         paper: { DEFAULT: '#f6f4ef', raised: '#ffffff', sunk: '#ebe7de' },
-        line: { DEFAULT: '#d6d0c4', strong: '#a89f8f' },
+        line: { DEFAULT: '#d6d0c4', strong: '#8d816d' },
         lens: { DEFAULT: '#0d6a6f', dark: '#08494d', light: '#d4ecec' },
         brass: { DEFAULT: '#a8741a', light: '#f3e3c2', dark: '#6f4c0f' },
         streak: { red: '#d3263a', white: '#f4efe2', glow: '#ffd9de' },
         night: { DEFAULT: '#0c1116', soft: '#1b242c' },
-        ok: { DEFAULT: '#1f7a45', light: '#dcefe3' },
-        warn: { DEFAULT: '#9a5b00', light: '#fbecd2' },
+        ok: { DEFAULT: '#1d7240', light: '#dcefe3' },
+        warn: { DEFAULT: '#925600', light: '#fbecd2' },
         bad: { DEFAULT: '#b3261e', light: '#f9dedc' },
       },
       fontFamily: {
