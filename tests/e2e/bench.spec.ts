@@ -294,7 +294,7 @@ test.describe('the bench', () => {
 
   test('a hidden case\'s heading names the condition once the attempt is in (issue 11)', async ({ page }) => {
     await signIn(page, STUDENT)
-    const res = await page.request.post('/api/practice', { data: { template: 'any' } })
+    const res = await page.request.post('/api/practice', { headers: sameOrigin(page), data: { template: 'any' } })
     expect(res.status()).toBe(201)
     const { id } = await res.json()
     await page.goto(`/practice/${id}`)

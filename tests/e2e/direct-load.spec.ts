@@ -140,8 +140,10 @@ for (const role of ROLES) {
     const ids = await role.ids(page.request)
     for (const route of role.routes) {
       const url = fill(route.path, ids)
-      // the server's own HTML (the page request carries the session cookie) already has the heading
-      const html = await (await page.request.get(url)).text()
+      // the server's own HTML (the page request carries the session cookie) already has the heading;
+      // the request carries what a browser sends on a typed-in link (W3C Fetch Metadata Request
+      // Headers), which server rendering forwards to the API calls it makes
+      const html = await (await page.request.get(url, { headers: { 'sec-fetch-site': 'none', 'sec-fetch-mode': 'navigate', 'sec-fetch-dest': 'document' } })).text()
       expect(/<h1[\s>]/.test(html), `${url}: no <h1> in the server-rendered page`).toBe(true)
 
       const errors = watchConsole(page)

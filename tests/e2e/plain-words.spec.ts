@@ -7,7 +7,7 @@ import { expect, test } from '@playwright/test'
 import type { APIRequestContext, Page } from '@playwright/test'
 import { SLIP_CODES } from '../../shared/engine/slips'
 import { writtenAuditActions } from '../support/auditActions'
-import { signIn } from './helpers'
+import { sameOrigin, signIn } from './helpers'
 
 const CODES = [...SLIP_CODES, ...writtenAuditActions()]
 
@@ -68,12 +68,12 @@ test('the audit log says what changed in words, old → new', async ({ page }) =
   const users = await get<{ items: { id: number, name: string }[] }>(page.request, '/api/admin/users?q=Noor')
   const noor = users.items[0]!
   for (const role of ['tutor', 'student']) {
-    expect((await page.request.patch(`/api/admin/users/${noor.id}`, { data: { role } })).status()).toBe(200)
+    expect((await page.request.patch(`/api/admin/users/${noor.id}`, { headers: sameOrigin(page), data: { role } })).status()).toBe(200)
   }
   const quizzes = await get<{ items: { id: number, title: string }[] }>(page.request, '/api/quizzes')
   const later = quizzes.items.find(q => q.title === 'End-of-term assessment')!
-  expect((await page.request.patch(`/api/quizzes/${later.id}`, { data: { timeLimitMinutes: 75 } })).status()).toBe(200)
-  expect((await page.request.patch(`/api/quizzes/${later.id}`, { data: { timeLimitMinutes: 60 } })).status()).toBe(200)
+  expect((await page.request.patch(`/api/quizzes/${later.id}`, { headers: sameOrigin(page), data: { timeLimitMinutes: 75 } })).status()).toBe(200)
+  expect((await page.request.patch(`/api/quizzes/${later.id}`, { headers: sameOrigin(page), data: { timeLimitMinutes: 60 } })).status()).toBe(200)
 
   const text = await expectNoCodes(page, '/admin/audit')
   expect(text).not.toMatch(/[{}]|"\w+":/)
