@@ -1,16 +1,12 @@
 // Issue 12, points 9, 10, 12 and 15 against the built server: body limits,
 // the one CSV writer and one-line names, cross-site requests, production posture
 // (HSTS, weak session passwords, the demo seed's second flag, paged lists).
-import { spawn } from 'node:child_process'
 import { request as httpRequest } from 'node:http'
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
 import Database from 'better-sqlite3'
 import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { Client, DEMO, signedIn } from '../support/client'
-import { freePort, startServer } from '../support/server'
+import { startServer, startUpExit } from '../support/server'
 import type { RunningServer } from '../support/server'
 
 const baseURL = inject('baseURL')
@@ -267,25 +263,7 @@ describe('point 15: production posture', () => {
     finally { await proxied.stop() }
   }, 60_000)
 
-  async function exitOf(password: string): Promise<{ code: number | null, out: string }> {
-    const dir = mkdtempSync(join(tmpdir(), 'cyclodial-weakpw-'))
-    const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
-      env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(await freePort()), NUXT_DB_PATH: join(dir, 'x.sqlite'), NUXT_SESSION_PASSWORD: password },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    })
-    let out = ''
-    child.stderr.on('data', (d) => {
-      out += String(d)
-    })
-    child.stdout.on('data', (d) => {
-      out += String(d)
-    })
-    const timer = setTimeout(() => child.kill('SIGKILL'), 15_000)
-    const code = await new Promise<number | null>(r => child.once('exit', r))
-    clearTimeout(timer)
-    rmSync(dir, { recursive: true, force: true })
-    return { code, out }
-  }
+  const exitOf = (password: string) => startUpExit({ NUXT_SESSION_PASSWORD: password })
 
   it('refuses to start with a session password that is long but trivially weak', async () => {
     for (const weak of ['a'.repeat(48), 'abcd'.repeat(10), 'password'.repeat(5), 'aabbccddaabbccddaabbccdd12121212']) {

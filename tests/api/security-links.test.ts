@@ -1,14 +1,10 @@
 // Issue 12, point 1: links in e-mails come from NUXT_PUBLIC_SITE_URL only; a
 // forged Host or X-Forwarded-* header changes nothing, and production refuses
 // to start without the setting.
-import { spawn } from 'node:child_process'
 import { request } from 'node:http'
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { DEMO, linkIn, signedIn, waitForMail } from '../support/client'
-import { freePort, startServer, TEST_SESSION_PASSWORD, type RunningServer } from '../support/server'
+import { startServer, startUpExit, TEST_SESSION_PASSWORD, type RunningServer } from '../support/server'
 
 const SITE = 'https://cyclodial.school.example'
 const FORGED = {
@@ -68,25 +64,7 @@ describe('links in e-mails', () => {
 })
 
 describe('start-up without a site URL', () => {
-  async function exitOf(env: Record<string, string>): Promise<{ code: number | null, out: string }> {
-    const dir = mkdtempSync(join(tmpdir(), 'cyclodial-nosite-'))
-    const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
-      env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(await freePort()), NUXT_DB_PATH: join(dir, 'x.sqlite'), NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD, NUXT_PUBLIC_SITE_URL: '', ...env },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    })
-    let out = ''
-    child.stdout.on('data', (d) => {
-      out += String(d)
-    })
-    child.stderr.on('data', (d) => {
-      out += String(d)
-    })
-    const timer = setTimeout(() => child.kill('SIGKILL'), 15_000)
-    const code = await new Promise<number | null>(r => child.once('exit', r))
-    clearTimeout(timer)
-    rmSync(dir, { recursive: true, force: true })
-    return { code, out }
-  }
+  const exitOf = (env: Record<string, string>) => startUpExit({ NUXT_SESSION_PASSWORD: TEST_SESSION_PASSWORD, NUXT_PUBLIC_SITE_URL: '', ...env })
 
   it('refuses to start in production without NUXT_PUBLIC_SITE_URL, or with one that is not an http(s) URL', async () => {
     const missing = await exitOf({})

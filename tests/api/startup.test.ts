@@ -1,30 +1,13 @@
 // Start-up behaviour of the built server, each case on its own server process.
-import { spawn } from 'node:child_process'
-import { mkdtempSync, rmSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { join, resolve } from 'node:path'
 import Database from 'better-sqlite3'
 import { SMTPServer } from 'smtp-server'
 import { describe, expect, it } from 'vitest'
 import { Client, DEMO } from '../support/client'
-import { freePort, startServer } from '../support/server'
+import { freePort, startServer, startUpExit } from '../support/server'
 
 describe('start-up', () => {
   it('refuses to start in production without a session password', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'cyclodial-nopw-'))
-    const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
-      env: { ...process.env, NODE_ENV: 'production', PORT: String(await freePort()), NUXT_DB_PATH: join(dir, 'x.sqlite'), NUXT_SESSION_PASSWORD: '' },
-      stdio: ['ignore', 'pipe', 'pipe'],
-    })
-    let out = ''
-    child.stderr.on('data', (d) => {
-      out += String(d)
-    })
-    child.stdout.on('data', (d) => {
-      out += String(d)
-    })
-    const code = await new Promise<number | null>(r => child.once('exit', r))
-    rmSync(dir, { recursive: true, force: true })
+    const { code, out } = await startUpExit({ NUXT_SESSION_PASSWORD: '' })
     expect(code).toBe(1)
     expect(out).toMatch(/NUXT_SESSION_PASSWORD/)
   })

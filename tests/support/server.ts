@@ -105,3 +105,28 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     },
   }
 }
+
+/**
+ * Starts the BUILT server in production with a fresh database and `env`, and waits for
+ * it to exit (it is killed after 15 s): for the start-up refusals. Returns the exit code
+ * and everything it printed.
+ */
+export async function startUpExit(env: Record<string, string>): Promise<{ code: number | null, out: string }> {
+  const dir = mkdtempSync(join(tmpdir(), 'cyclodial-startup-'))
+  const child = spawn(process.execPath, [resolve('.output/server/index.mjs')], {
+    env: { ...process.env, NODE_ENV: 'production', HOST: '127.0.0.1', PORT: String(await freePort()), NUXT_DB_PATH: join(dir, 'x.sqlite'), ...env },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  let out = ''
+  child.stdout.on('data', (d) => {
+    out += String(d)
+  })
+  child.stderr.on('data', (d) => {
+    out += String(d)
+  })
+  const timer = setTimeout(() => child.kill('SIGKILL'), 15_000)
+  const code = await new Promise<number | null>(r => child.once('exit', r))
+  clearTimeout(timer)
+  rmSync(dir, { recursive: true, force: true })
+  return { code, out }
+}
