@@ -60,9 +60,10 @@ describe('SimTrialFrame', () => {
     const le = wrapper.findAll('[role="slider"]')[1]!
     await re.trigger('keydown', { key: 'ArrowUp' })
     expect(store.rods.RE).toBe(91)
-    await re.trigger('keydown', { key: 'ArrowRight', shiftKey: true })
+    await re.trigger('keydown', { key: 'ArrowLeft', shiftKey: true })
     expect(store.rods.RE).toBe(96)
-    await re.trigger('keydown', { key: 'ArrowLeft' })
+    // → turns the rod clockwise as seen on screen: the figure falls
+    await re.trigger('keydown', { key: 'ArrowRight' })
     expect(store.rods.RE).toBe(95)
     await le.trigger('keydown', { key: 'ArrowDown', shiftKey: true })
     expect(store.rods.LE).toBe(85)
