@@ -30,3 +30,21 @@ export function markWord(score: number): 'Full' | 'Half' | 'Part' | 'None' {
   if (score === 0.5) return 'Half'
   return score > 0 ? 'Part' : 'None'
 }
+
+/**
+ * An attempt's slips on one line, each named once with its eye: "Direction reversed
+ * (both eyes); Test not named". A slip the grader gave for both eyes reads "both eyes".
+ */
+export function slipsLine(slips: readonly { code: string, eye?: Eye }[], title: (code: string) => string): string {
+  const eyes = new Map<string, Set<Eye | ''>>()
+  for (const s of slips) {
+    const set = eyes.get(s.code) ?? new Set<Eye | ''>()
+    set.add(s.eye ?? '')
+    eyes.set(s.code, set)
+  }
+  return [...eyes].map(([code, set]) => {
+    const named = [...set].filter((e): e is Eye => e !== '')
+    const which = named.length === 2 ? 'both eyes' : named.length === 1 ? eyeWords(named[0]) : ''
+    return which ? `${title(code)} (${which})` : title(code)
+  }).join('; ')
+}
