@@ -11,6 +11,16 @@ async function cohortId(admin: Client, name: string): Promise<number> {
 }
 
 describe('invitations', () => {
+  it('greets the invited person by name when one was given (issue 13)', async () => {
+    const admin = await signedIn(baseURL, DEMO.admin)
+    const email = 'named.invitee@cyclodial.test'
+    const invited = await admin.post('/api/admin/invitations', { email, name: 'Tove Ashcombe', role: 'tutor', cohortId: null })
+    expect(invited.status).toBe(201)
+    const mail = await waitForMail(admin, email, /invited/i)
+    expect(mail.text.split('\n')[0]).toBe('Hello Tove Ashcombe,')
+    expect(mail.text).toContain('check your name and choose your password')
+  })
+
   it('runs end to end: invite, e-mail, accept, signed in with role and cohort', async () => {
     const admin = await signedIn(baseURL, DEMO.admin)
     const heron = await cohortId(admin, 'Heron cohort')
@@ -24,6 +34,8 @@ describe('invitations', () => {
     const link = linkIn(mail.text, '/invite')
     const token = link.split('/invite/')[1]!
     expect(link.startsWith(baseURL)).toBe(true)
+    // no name was given: a plain greeting
+    expect(mail.text.split('\n')[0]).toBe('Hello,')
 
     const guest = new Client(baseURL)
     const info = await guest.get(`/api/invitations/${token}`)
