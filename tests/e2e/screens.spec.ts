@@ -250,3 +250,23 @@ test('screenshots: slip patterns and the results table at 1280×720 and 820×118
     await page.screenshot({ path: `${SHOTS}/screens-results-${size.width}x${size.height}.png` })
   }
 })
+
+test('the student home shows a quiz open now, and history names each slip once with its eye', async ({ page }) => {
+  // the demo school's Kestrel cohort has "Week 6" open now (db/seed/quizzes.ts)
+  await signIn(page, FIRST_RUN_STUDENT)
+  const open = page.getByTestId('home-open-quiz')
+  await expect(open).toContainText('Week 6: patients who look different')
+  await open.getByRole('link', { name: /Week 6/ }).click()
+  await expect(page).toHaveURL(/\/student\/quizzes\/\d+$/)
+
+  await page.goto('/practice/history')
+  await page.waitForLoadState('networkidle')
+  const lines = await page.getByTestId('history-slips').allTextContents()
+  expect(lines.length).toBeGreaterThan(0)
+  for (const line of lines) {
+    const names = line.split('; ').map(n => n.replace(/ \((right eye|left eye|both eyes)\)$/, ''))
+    expect(new Set(names).size, line).toBe(names.length)
+  }
+  // her planted habit records the image, reversing directions (db/seed/history.ts): the eye is named
+  expect(lines.join('\n')).toMatch(/\((right eye|left eye|both eyes)\)/)
+})
