@@ -38,6 +38,8 @@ async function openCase(page: Page, template: string, mode: 'I turn the rods' | 
   // the segmented choice: its visible label takes the click
   await page.getByText(mode, { exact: true }).click()
   await expect(page.getByRole('radio', { name: mode })).toBeChecked()
+  // Read the scale changes nothing when the patient turns the rods (the readout is always hidden): not offered then
+  await expect(page.getByTestId('read-scale-option')).toHaveCount(mode === 'I turn the rods' ? 1 : 0)
   await page.getByRole('button', { name: 'Open the bench' }).click()
   await expect(page).toHaveURL(/\/practice\/\d+$/)
   await expect(page.getByTestId('bench')).toBeVisible()
