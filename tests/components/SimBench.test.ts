@@ -124,6 +124,26 @@ describe('SimBench in learner-turns', () => {
     expect(body.interpretation).toEqual({ muscle: 'RSO' })
   })
 
+  it('where the interpretation counts, submitting it incomplete asks once; practice sends at once', async () => {
+    fakeLayout(640)
+    const quiz = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    await quiz.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
+    const dialog = () => quiz.findAll('dialog').find(d => d.text().includes('The interpretation counts in this quiz; submit without it?'))!
+    expect(dialog().attributes('open')).toBeUndefined()
+    await quiz.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    await nextTick()
+    expect(quiz.emitted('submit')).toBeUndefined()
+    expect(dialog().attributes('open')).toBeDefined()
+    await quiz.findAll('button').find(b => b.text() === 'Submit without it')!.trigger('click')
+    expect(quiz.emitted('submit')).toHaveLength(1)
+    // answered in full: no question
+    const full = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    await full.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
+    await full.get('#interp-muscle').setValue('not-applicable')
+    await full.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    expect(full.emitted('submit')).toHaveLength(1)
+  })
+
   it('says which marking its dial uses, and leaves the simulation caution to the page (said once, in the footer)', async () => {
     fakeLayout(640)
     const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
