@@ -55,11 +55,11 @@ export async function platformForLogin(db: Kysely<Database>, issuer: string, cli
 
 const keySets = new Map<string, ReturnType<typeof createRemoteJWKSet>>()
 
-/** The platform's key set, cached per URL (jose refetches at most every 30 s on an unknown kid). */
+/** The platform's key set, cached per URL (jose refetches at most every 5 s on an unknown kid). */
 export function platformKeySet(jwksUrl: string) {
   let set = keySets.get(jwksUrl)
   if (!set) {
-    set = createRemoteJWKSet(new URL(jwksUrl), { cooldownDuration: 30_000, cacheMaxAge: 10 * 60_000, timeoutDuration: 5000 })
+    set = createRemoteJWKSet(new URL(jwksUrl), { cooldownDuration: 5_000, cacheMaxAge: 10 * 60_000, timeoutDuration: 5000 })
     keySets.set(jwksUrl, set)
   }
   return set
