@@ -23,10 +23,8 @@ export default defineEventHandler(async (event: H3Event) => {
   if (problem && ltiForm !== 'platform') throw createError({ statusCode: 403, statusMessage: 'Forbidden', message: problem.message, data: { code: problem.code } })
 
   if (isUploadRoute(method, event.path) || !declaresBody(event.node.req)) return
-  if (ltiForm) {
-    if (!isFormContentType(headers['content-type'])) {
-      throw createError({ statusCode: 415, statusMessage: 'Unsupported Media Type', message: 'Send this form as application/x-www-form-urlencoded.', data: { code: 'form-required', fields: [{ path: '(body)', message: 'The body must be a URL-encoded form.' }] } })
-    }
+  // an LTI form (anything else sent there gets the JSON rules, and the route finds no form fields in it)
+  if (ltiForm && isFormContentType(headers['content-type'])) {
     ;(event as unknown as { _requestBody: unknown })._requestBody = await readLimitedBody(event, LTI_FORM_MAX_BYTES)
     return
   }

@@ -8,7 +8,7 @@ import type { SessionUserData } from '#shared/auth/roles'
 import { CLAIM, CUSTOM_QUIZ, type MappedRole } from './claims'
 import { LtiRefusal } from './html'
 
-export type LaunchClaims = Record<string, unknown> & { sub: string, 'cyclodial:role': MappedRole, 'cyclodial:target': string }
+export type LaunchClaims = Record<string, unknown> & { 'sub': string, 'cyclodial:role': MappedRole, 'cyclodial:target': string }
 
 function text(value: unknown, max: number): string | null {
   if (typeof value !== 'string') return null

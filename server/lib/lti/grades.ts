@@ -5,6 +5,7 @@
 import type { Kysely } from 'kysely'
 import type { Database, QuizRow } from '~~/db/schema'
 import { computeResults } from '~~/server/utils/quiz/results'
+import type { GradeLogEntry } from '#shared/types/lti'
 import { postScore } from './ags'
 
 /** Same rule as mail: the first retry after `base` seconds, doubling, at most an hour; give up after 8 tries. */
@@ -101,24 +102,6 @@ export function deliverDueGrades(db: Kysely<Database>, retryBaseSeconds: number)
     return sent
   })()
   return running
-}
-
-export interface GradeLogEntry {
-  id: number
-  quizId: number
-  quizTitle: string
-  studentId: number
-  studentName: string
-  platformName: string
-  scoreGiven: number
-  scoreMaximum: number
-  reason: string
-  status: string
-  attempts: number
-  lastError: string | null
-  nextAttemptAt: string | null
-  createdAt: string
-  sentAt: string | null
 }
 
 /** The log, newest first: one quiz (limited to `studentIds` when given) or every quiz. */

@@ -14,9 +14,9 @@ export default defineEventHandler(async (event) => {
   const context = launch.claims[CLAIM.context] as { id?: string } | undefined
   const course = context?.id
     ? await db.selectFrom('lti_contexts').leftJoin('cohorts', 'cohorts.id', 'lti_contexts.cohort_id')
-      .select(['lti_contexts.title', 'lti_contexts.cohort_id', 'cohorts.name as cohortName'])
-      .where('lti_contexts.platform_id', '=', launch.platform_id).where('lti_contexts.context_id', '=', context.id)
-      .where('lti_contexts.deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).executeTakeFirst()
+        .select(['lti_contexts.title', 'lti_contexts.cohort_id', 'cohorts.name as cohortName'])
+        .where('lti_contexts.platform_id', '=', launch.platform_id).where('lti_contexts.context_id', '=', context.id)
+        .where('lti_contexts.deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).executeTakeFirst()
     : undefined
   const cohorts = await db.selectFrom('cohorts').innerJoin('cohort_members', 'cohort_members.cohort_id', 'cohorts.id')
     .select(['cohorts.id', 'cohorts.name']).where('cohort_members.user_id', '=', user.id).orderBy('cohorts.name').execute()

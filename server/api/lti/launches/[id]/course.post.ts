@@ -14,7 +14,7 @@ export default defineEventHandler(async (event) => {
   const context = launch.claims[CLAIM.context] as { id?: string } | undefined
   const course = context?.id
     ? await db.selectFrom('lti_contexts').selectAll().where('platform_id', '=', launch.platform_id)
-      .where('deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).where('context_id', '=', context.id).executeTakeFirst()
+        .where('deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).where('context_id', '=', context.id).executeTakeFirst()
     : undefined
   if (!course) notFound('That course')
   if (course.cohort_id !== null) {

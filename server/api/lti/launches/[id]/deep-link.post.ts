@@ -28,7 +28,7 @@ export default defineEventHandler(async (event) => {
     const context = launch.claims[CLAIM.context] as { id?: string } | undefined
     const course = context?.id
       ? await db.selectFrom('lti_contexts').select(['cohort_id', 'title']).where('platform_id', '=', platform.id)
-        .where('deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).where('context_id', '=', context.id).executeTakeFirst()
+          .where('deployment_id', '=', launch.claims[CLAIM.deploymentId] as string).where('context_id', '=', context.id).executeTakeFirst()
       : undefined
     if (course?.cohort_id) {
       const assigned = await db.selectFrom('quiz_cohorts').select('quiz_id').where('quiz_id', '=', quiz.id).where('cohort_id', '=', course.cohort_id).executeTakeFirst()
