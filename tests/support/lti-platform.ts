@@ -83,7 +83,7 @@ export interface TokenOptions {
 export class PracticePlatform {
   readonly clientId = 'cyclodial-practice-client'
   readonly deploymentId = 'practice-deployment-1'
-  readonly course = { id: 'course-ortho-2', label: 'ORT2', title: 'Orthoptics, second year (practice course)' }
+  readonly course: { id: string, label: string, title: string }
   readonly people: Record<'student' | 'tutor' | 'admin', PracticePerson> = {
     student: { sub: 'learner-0001', name: 'Wren Calloway', email: 'wren.calloway@practice-platform.test', roles: [ROLES.learner] },
     tutor: { sub: 'teacher-0001', name: 'Ida Fenwright', email: 'ida.fenwright@practice-platform.test', roles: [ROLES.instructor] },
@@ -106,7 +106,10 @@ export class PracticePlatform {
   private toolKeys: ReturnType<typeof createRemoteJWKSet> | null = null
   issuer = ''
 
-  constructor(readonly toolOrigin: string) {}
+  /** `course`: the one course this platform has (another title per test keeps cohort names apart). */
+  constructor(readonly toolOrigin: string, course: Partial<PracticePlatform['course']> = {}) {
+    this.course = { id: 'course-ortho-2', label: 'ORT2', title: 'Orthoptics, second year (practice course)', ...course }
+  }
 
   get authUrl() { return `${this.issuer}/auth` }
   get tokenUrl() { return `${this.issuer}/token` }
