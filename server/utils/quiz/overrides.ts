@@ -40,8 +40,13 @@ export async function storeMarkOverride(db: Kysely<Database>, o: MarkOverride): 
     })
   })
   // after release, the changed score goes to any learning platform the quiz is linked to
-  const quiz = await db.selectFrom('quizzes').selectAll().where('id', '=', o.quizId).executeTakeFirst()
-  if (quiz?.released_at && (await queueQuizGrades(db, quiz, 'override', [o.studentId])).length) {
-    deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+  try {
+    const quiz = await db.selectFrom('quizzes').selectAll().where('id', '=', o.quizId).executeTakeFirst()
+    if (quiz?.released_at && (await queueQuizGrades(db, quiz, 'override', [o.studentId])).length) {
+      deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+    }
+  }
+  catch (error) {
+    console.error(`[lti] could not queue the changed score of quiz ${o.quizId}: ${error instanceof Error ? error.message : error}`)
   }
 }

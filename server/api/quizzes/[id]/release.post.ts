@@ -32,8 +32,15 @@ export default defineEventHandler(async (event) => {
     await writeAudit(trx, { actorId: user.id, action: 'quiz.released', targetType: 'quiz', targetId: id, detail: { title: quiz.title } })
   })
   // scores to learning platforms (LTI AGS): queued now, sent in the background with retries
-  const gradeJobs = await queueQuizGrades(db, { ...quiz, released_at: now }, 'release')
-  if (gradeJobs.length) deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+  let gradeJobs: number[] = []
+  try {
+    gradeJobs = await queueQuizGrades(db, { ...quiz, released_at: now }, 'release')
+    if (gradeJobs.length) deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+  }
+  catch (error) {
+    // the release stands; the log shows no jobs, and the tutor can see that on the marks page
+    console.error(`[lti] could not queue the scores of quiz ${id}: ${error instanceof Error ? error.message : error}`)
+  }
   const students = await quizStudents(db, id)
   const sat = new Set((await db.selectFrom('quiz_sittings').select('student_id').where('quiz_id', '=', id).execute()).map(s => s.student_id))
   const link = `${siteOrigin(event)}/student/quizzes/${id}`
