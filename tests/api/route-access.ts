@@ -124,6 +124,7 @@ export const CROSS_COHORT: Record<string, 403 | 404 | 'own-only' | 'allowed'> = 
   'GET /api/quizzes/[id]/items/[itemId]/cases/[studentId]': 404,
   'GET /api/quizzes/[id]/results': 'own-only',
   'GET /api/quizzes/[id]/results.csv': 'own-only',
+  'GET /api/quizzes/[id]/lti-grades': 'own-only',
   'GET /api/quizzes/[id]/attempts/[attemptId]': 404,
   'POST /api/quizzes/[id]/attempts/[attemptId]/overrides': 404,
   'POST /api/quizzes/[id]/release': 403,
