@@ -248,6 +248,18 @@ describe('launch checks, each failing on its own fault', () => {
     expect((await elsewhere.get('/api/auth/me')).status).toBe(401)
   })
 
+  it('a learner cannot answer a deep-linking request, and no account is made for trying', async () => {
+    const browser = new Client(server.baseURL)
+    const who = person()
+    const { state, nonce } = await login(browser, who, 'deep')
+    const posted = await postLaunch(browser, { id_token: await platform.idToken({ nonce, person: who, messageType: 'LtiDeepLinkingRequest' }), state })
+    expect(posted.status).toBe(303)
+    const refused = await browser.request('GET', posted.headers.get('location')!, undefined, { headers: { accept: 'text/html' } })
+    expect(refused.status).toBe(403)
+    expect(refused.headers.get('x-lti-refusal')).toBe('not-an-instructor')
+    expect(accountsOf(who.email)).toBe(0)
+  })
+
   it('picks up the platform\'s new key after a rotation (the key set is fetched again for an unknown kid)', async () => {
     await platform.rotateKey()
     await new Promise(r => setTimeout(r, 5200)) // past the 5 s cool-down of the cached key set
@@ -300,6 +312,11 @@ describe('courses, deep linking and grades back', () => {
     // the choice: an HTML form post from the page, answered by a form that posts to the platform
     const choose = (quizId: string) => tutor.request('POST', `/api/lti/launches/${launchId}/deep-link`, undefined, { raw: new URLSearchParams({ quizId }).toString(), headers: { 'content-type': 'application/x-www-form-urlencoded', 'accept': 'text/html' } })
     expect((await choose('not-a-number')).status).toBe(400)
+    // a quiz the tutor does not manage is refused with a page, and nothing goes to the platform
+    const demoQuiz = (await (await signedIn(server.baseURL, DEMO.tutor)).get('/api/quizzes?pageSize=5')).body.items[0]
+    const foreign = await choose(String(demoQuiz.id))
+    expect([403, 404]).toContain(foreign.status)
+    expect(String(foreign.body)).not.toContain('name="JWT"')
     const chosen = await choose(String(quiz.id))
     expect(chosen.status, String(chosen.body)).toBe(200)
     expect(chosen.headers.get('content-security-policy')).toContain(`form-action ${platform.issuer}`)

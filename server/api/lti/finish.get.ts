@@ -22,6 +22,10 @@ export default defineEventHandler(async (event) => {
     const platform = await db.selectFrom('lti_platforms').selectAll().where('id', '=', row.platform_id).executeTakeFirstOrThrow()
     const claims = JSON.parse(row.claims_json) as LaunchClaims
     const deploymentId = claims[CLAIM.deploymentId] as string
+    // only instructors choose content; refused before any account is made
+    if (row.message_type === DEEP_LINKING_REQUEST && claims['cyclodial:role'] !== 'tutor') {
+      throw new LtiRefusal(403, 'not-an-instructor', 'Only a course\'s instructors choose what Cyclodial adds to it.')
+    }
     const user = await accountFor(db, platform, claims, hashPassword)
     if (row.message_type === DEEP_LINKING_REQUEST && user.role === 'student') {
       throw new LtiRefusal(403, 'not-an-instructor', 'Only a course\'s instructors choose what Cyclodial adds to it.')
