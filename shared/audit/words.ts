@@ -16,6 +16,7 @@ export const AUDIT_ACTION_WORDS = {
   'invitation.created': 'Invitation sent',
   'lti.account-created': 'Account made on a launch from a learning platform',
   'lti.cohort-joined': 'Joined a cohort on a launch from a learning platform',
+  'lti.key-rotated': 'Signing key for learning platforms replaced',
   'lti.course-linked': 'Course on a learning platform linked to a cohort',
   'lti.platform-changed': 'Learning platform changed',
   'lti.platform-registered': 'Learning platform registered',

@@ -101,6 +101,18 @@ describe('registering a learning platform', () => {
   })
 })
 
+describe('the tool\'s key rotation', () => {
+  it('a new key signs from then on; the old one stays published', async () => {
+    const before = (await new Client(server.baseURL).get('/api/lti/jwks')).body.keys.map((k: { kid: string }) => k.kid)
+    const rotated = await admin.post('/api/admin/lti/keys/rotate')
+    expect(rotated.status).toBe(200)
+    expect(before).not.toContain(rotated.body.kid)
+    const after = (await new Client(server.baseURL).get('/api/lti/jwks')).body.keys.map((k: { kid: string }) => k.kid)
+    expect(after).toEqual(expect.arrayContaining([...before, rotated.body.kid]))
+    expect((await (await signedIn(server.baseURL, DEMO.tutor)).post('/api/admin/lti/keys/rotate')).status).toBe(403)
+  })
+})
+
 describe('login initiation (LTI Core 1.3 §4.1)', () => {
   it('redirects to the authorisation URL with the OIDC parameters and a fresh state and nonce', async () => {
     const browser = new Client(server.baseURL)
@@ -323,6 +335,9 @@ describe('courses, deep linking and grades back', () => {
     const page = String(chosen.body)
     expect(page).toContain(`action="${platform.issuer}/deep-link-return"`)
     const jwt = /name="JWT" value="([^"]+)"/.exec(page)![1]!
+    // signed with the newest published key (after the rotation above)
+    const header = JSON.parse(Buffer.from(jwt.split('.')[0]!, 'base64url').toString('utf8'))
+    expect(header.kid).toBe((await new Client(server.baseURL).get('/api/lti/jwks')).body.keys[0].kid)
     const returned = await fetch(`${platform.issuer}/deep-link-return`, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams({ JWT: jwt }) })
     expect(returned.status).toBe(200)
     const link = [...platform.links.values()].at(-1)!

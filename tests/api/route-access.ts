@@ -29,6 +29,7 @@ export const ROUTE_ACCESS: Record<string, Access> = {
   'POST /api/admin/lti/platforms': ['admin'],
   'PATCH /api/admin/lti/platforms/[id]': ['admin'],
   'GET /api/admin/lti/grades': ['admin'],
+  'POST /api/admin/lti/keys/rotate': ['admin'],
   // LTI 1.3: the platform's browser posts and the tool's key set are public; the
   // signed id_token, its nonce and the state cookie are the proof (tests/api/lti.test.ts)
   'GET /api/lti/jwks': 'public',
