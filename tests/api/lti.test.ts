@@ -247,6 +247,16 @@ describe('launch checks, each failing on its own fault', () => {
     expect(again.headers.get('x-lti-refusal')).toBe('state-used')
   })
 
+  it('refuses a launch form above 64 KB before reading it all (413), and a form post without fields (400)', async () => {
+    const browser = new Client(server.baseURL)
+    const big = await postLaunch(browser, { id_token: 'x'.repeat(70 * 1024), state: 'whatever' })
+    expect(big.status).toBe(413)
+    expect(big.headers.get('x-lti-refusal')).toBe('body-too-large')
+    const empty = await postLaunch(browser, {})
+    expect(empty.status).toBe(400)
+    expect(empty.headers.get('x-lti-refusal')).toBe('missing-parameter')
+  })
+
   it('a launch is finished only in the browser that started it', async () => {
     const browser = new Client(server.baseURL)
     const who = person()
