@@ -69,11 +69,15 @@ export function greatestOf(db: AnyDb, a: RawBuilder<unknown> | string, b: RawBui
   return dialectOf(db) === 'postgres' ? sql<number>`greatest(${ra}, ${rb})` : sql<number>`max(${ra}, ${rb})`
 }
 
+
 /**
- * `for update skip locked` on PostgreSQL (rows another instance is claiming are
- * passed over); nothing on SQLite, where one writer at a time is the rule anyway.
- * Append to a raw select: sql`select id from mail_jobs where … ${skipLocked(db)}`.
+ * Serialises transactions that share `key` until they commit: PostgreSQL's
+ * pg_advisory_xact_lock on a 32-bit hash of the key (PostgreSQL docs §9.27.10,
+ * Advisory Lock Functions), so instances counting or claiming the same thing wait
+ * for each other; nothing on SQLite, where a write transaction already runs alone.
+ * Call first inside the transaction.
  */
-export function skipLocked(db: AnyDb): RawBuilder<unknown> {
-  return dialectOf(db) === 'postgres' ? sql`for update skip locked` : sql``
+export async function lockForTransaction(trx: Transaction<any>, key: string): Promise<void> {
+  if (dialectOf(trx) !== 'postgres') return
+  await sql`select pg_advisory_xact_lock(hashtext(${key}))`.execute(trx)
 }
