@@ -45,6 +45,31 @@ export function isForeignKeyViolation(error: unknown): boolean {
   return code === 'SQLITE_CONSTRAINT_FOREIGNKEY' || code === '23503'
 }
 
+/** '$.source.id' → ['source', 'id']: the simple JSON paths Cyclodial uses (keys and array indexes). */
+function jsonPathKeys(path: string): string[] {
+  if (!/^\$(?:\.[A-Za-z_]\w*|\[\d+\])+$/.test(path)) throw new Error(`Unsupported JSON path: ${path}`)
+  return [...path.matchAll(/\.([A-Za-z_]\w*)|\[(\d+)\]/g)].map(m => m[1] ?? m[2]!)
+}
+
+/**
+ * A text value inside a JSON text column: SQLite's json_extract(col, '$.a.b'),
+ * PostgreSQL's (col::jsonb #>> '{a,b}'). Null when absent.
+ */
+export function jsonText(db: AnyDb, column: string, path: string): RawBuilder<string | null> {
+  const keys = jsonPathKeys(path)
+  return dialectOf(db) === 'postgres'
+    ? sql<string | null>`(${sql.ref(column)}::jsonb #>> ${`{${keys.join(',')}}`})`
+    : sql<string | null>`json_extract(${sql.ref(column)}, ${path})`
+}
+
+/** A number inside a JSON text column, read as a number on both (see jsonText). */
+export function jsonNumber(db: AnyDb, column: string, path: string): RawBuilder<number | null> {
+  const keys = jsonPathKeys(path)
+  return dialectOf(db) === 'postgres'
+    ? sql<number | null>`((${sql.ref(column)}::jsonb #>> ${`{${keys.join(',')}}`})::numeric)`
+    : sql<number | null>`json_extract(${sql.ref(column)}, ${path})`
+}
+
 /**
  * Case-insensitive substring match: SQLite's LIKE ignores ASCII case already,
  * PostgreSQL's does not (ILIKE does). `pattern` is the full LIKE pattern.

@@ -6,7 +6,7 @@
 import type { Kysely } from 'kysely'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { migrateToLatest, openConfiguredDatabase, openDatabase, withStartupLock } from '../../../db/open'
-import { dialectOf, groupConcat, greatestOf, isUniqueViolation, likeIgnoringCase } from '../../../db/dialect'
+import { dialectOf, groupConcat, greatestOf, isUniqueViolation, jsonNumber, jsonText, likeIgnoringCase } from '../../../db/dialect'
 import type { Database } from '../../../db/schema'
 import { migrations } from '../../../db/migrations'
 import { seedDemoIfWanted } from '../../../db/seed'
@@ -119,15 +119,18 @@ describe('one schema on every configured database', () => {
     }
   })
 
-  it('matches text ignoring case, joins a group and takes the larger of two, the same on each', async () => {
+  it('matches text ignoring case, joins a group, takes the larger of two and reads inside JSON, the same on each', async () => {
     const out = []
     for (const t of targets) {
       const like = await t.db.selectFrom('users').select('email').where(likeIgnoringCase(t.db, 'email', 'RT-%@EXAMPLE.TEST')).execute()
       const joined = await t.db.selectFrom('users').select(groupConcat(t.db, 'name', '|').as('names')).where('email', 'like', 'dup-%').executeTakeFirstOrThrow()
       const bigger = await t.db.selectFrom('fundus_photos').select(greatestOf(t.db, 'disc_x', 'reference_angle').as('g')).where('title', '=', 'rt').executeTakeFirstOrThrow()
-      out.push({ like: like.length, joined: joined.names, bigger: bigger.g })
+      const json = await t.db.selectFrom('fundus_photos')
+        .select([jsonText(t.db, 'notes', '$.words').as('words'), jsonNumber(t.db, 'notes', '$.readings.RE').as('re'), jsonNumber(t.db, 'notes', '$.list[2]').as('third'), jsonText(t.db, 'notes', '$.missing').as('missing')])
+        .where('title', '=', 'rt').where(jsonNumber(t.db, 'notes', '$.list[0]'), '=', 1).executeTakeFirstOrThrow()
+      out.push({ like: like.length, joined: joined.names, bigger: bigger.g, json })
     }
-    expect(out[0]).toEqual({ like: 1, joined: 'Dup again', bigger: FIGURE })
+    expect(out[0]).toEqual({ like: 1, joined: 'Dup again', bigger: FIGURE, json: { words: 'ex­cyclo “near” ✓', re: -3.5, third: 3, missing: null } })
     for (const o of out) expect(o).toEqual(out[0])
   })
 })
