@@ -94,7 +94,6 @@ export function greatestOf(db: AnyDb, a: RawBuilder<unknown> | string, b: RawBui
   return dialectOf(db) === 'postgres' ? sql<number>`greatest(${ra}, ${rb})` : sql<number>`max(${ra}, ${rb})`
 }
 
-
 /**
  * Serialises transactions that share `key` until they commit: PostgreSQL's
  * pg_advisory_xact_lock on a 32-bit hash of the key (PostgreSQL docs §9.27.10,

@@ -21,6 +21,10 @@ export interface RunningServer {
   stop: () => Promise<void>
 }
 
+/** NUXT_DB_PATH → the PostgreSQL database of a server started in this process (PostgreSQL tier). */
+const databaseUrls = new Map<string, string>()
+export const databaseUrlFor = (dbPath: string): string | undefined => databaseUrls.get(dbPath)
+
 export const TEST_SESSION_PASSWORD = 'test-only-session-password-0123456789abcdef'
 
 export function freePort(): Promise<number> {
@@ -56,6 +60,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   let created: TestDatabase | null = null
   if (!options.databaseUrl && !options.dbPath && pgAdmin) created = await createTestDatabase(pgAdmin)
   const databaseUrl = options.databaseUrl ?? created?.url ?? null
+  if (databaseUrl) databaseUrls.set(dbPath, databaseUrl)
   let log = ''
   const env: Record<string, string | undefined> = {
     ...process.env,

@@ -68,7 +68,6 @@ describe('type from the bytes', () => {
   })
 })
 
-
 interface Driver { name: string, storage: () => PhotoStorage, stored: () => Promise<string[]>, key: (name: string) => string }
 const drivers: Driver[] = [
   { name: 'local folder', storage: () => localPhotoStorage(photoDir), stored: async () => files(), key: n => n },

@@ -12,9 +12,9 @@ export default defineEventHandler(async (event) => {
   const photo = await fundusPhotoImageFor(user, id)
   const bytes = isStorageName(photo.storage_name)
     ? await fundusPhotoStorage().get(photo.storage_name).catch((error: unknown) => {
-      console.error(`[fundus] reading photo ${photo.id}: ${error instanceof Error ? error.message : error}`)
-      return null
-    })
+        console.error(`[fundus] reading photo ${photo.id}: ${error instanceof Error ? error.message : error}`)
+        return null
+      })
     : null
   if (!bytes) notFound('That fundus photograph\'s file')
   setResponseHeaders(event, {
