@@ -108,7 +108,7 @@ describe('one schema on every configured database', () => {
   it('reports a duplicate as a unique violation, and upserts the same way', async () => {
     for (const t of targets) {
       const email = `dup-${t.name}@example.test`
-      const values = { email, name: 'Dup', role: 'student' as const, password_hash: 'x', disabled: 0, created_at: TIME, updated_at: TIME, last_login_at: null }
+      const values = { email, name: 'Dup', role: 'student' as const, password_hash: 'x', disabled: 0 as const, created_at: TIME, updated_at: TIME, last_login_at: null }
       await t.db.insertInto('users').values(values).execute()
       const error = await t.db.insertInto('users').values(values).execute().then(() => null, (e: unknown) => e)
       expect(isUniqueViolation(error)).toBe(true)
