@@ -94,6 +94,10 @@ export interface MailJobsTable {
   next_attempt_at: Timestamp
   created_at: Timestamp
   sent_at: Timestamp | null
+  /** Until when one instance holds the job to send it (0015); null = free. */
+  lease_until: Generated<Timestamp | null>
+  /** Which instance holds the lease (a random id per process). */
+  lease_owner: Generated<string | null>
 }
 
 export interface LoginFailuresTable {
@@ -101,6 +105,8 @@ export interface LoginFailuresTable {
   email: string
   ip: string
   created_at: Timestamp
+  /** 1 while the attempt is reserved and its password not yet checked (0015). */
+  pending: Generated<number>
 }
 
 export type CasePurpose = 'practice' | 'quiz' | 'preview'

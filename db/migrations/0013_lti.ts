@@ -4,10 +4,11 @@
 // accounts and cohorts, resource links bound to quizzes, and the grade-return log.
 // Portable types only (integer, varchar, text; times as ISO text).
 import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('lti_platforms')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('name', 'varchar(120)', c => c.notNull())
     .addColumn('issuer', 'varchar(500)', c => c.notNull())
     .addColumn('client_id', 'varchar(255)', c => c.notNull())
@@ -69,7 +70,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('lti_users_user').on('lti_users').column('user_id').execute()
 
   await db.schema.createTable('lti_contexts')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
     .addColumn('deployment_id', 'varchar(255)', c => c.notNull())
     .addColumn('context_id', 'varchar(255)', c => c.notNull())
@@ -80,7 +81,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('lti_contexts_key').on('lti_contexts').columns(['platform_id', 'deployment_id', 'context_id']).unique().execute()
 
   await db.schema.createTable('lti_resource_links')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
     .addColumn('deployment_id', 'varchar(255)', c => c.notNull())
     .addColumn('resource_link_id', 'varchar(255)', c => c.notNull())
@@ -95,12 +96,12 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('lti_resource_links_quiz').on('lti_resource_links').column('quiz_id').execute()
 
   await db.schema.createTable('lti_grade_jobs')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('quiz_id', 'integer', c => c.notNull().references('quizzes.id').onDelete('cascade'))
     .addColumn('student_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('resource_link_id', 'integer', c => c.notNull().references('lti_resource_links.id').onDelete('cascade'))
-    .addColumn('score_given', 'real', c => c.notNull())
-    .addColumn('score_maximum', 'real', c => c.notNull())
+    .addColumn('score_given', realType(db), c => c.notNull())
+    .addColumn('score_maximum', realType(db), c => c.notNull())
     .addColumn('reason', 'varchar(32)', c => c.notNull())
     .addColumn('status', 'varchar(16)', c => c.notNull())
     .addColumn('attempts', 'integer', c => c.notNull().defaultTo(0))

@@ -1,6 +1,6 @@
-import Database from 'better-sqlite3'
 import { describe, expect, inject, it } from 'vitest'
 import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
+import { readDb } from '../support/db'
 
 const baseURL = inject('baseURL')
 const dbPath = inject('dbPath')
@@ -71,13 +71,13 @@ describe('invitations', () => {
     const mail = await waitForMail(admin, email, /invited/i)
     const token = linkIn(mail.text, '/invite').split('/invite/')[1]!
 
-    const db = new Database(dbPath)
-    db.prepare('update invitations set expires_at = ? where email = ?').run('2000-01-01T00:00:00.000Z', email)
+    const db = readDb(dbPath, { write: true })
+    db.run('update invitations set expires_at = ? where email = ?', '2000-01-01T00:00:00.000Z', email)
     db.close()
 
     const guest = new Client(baseURL)
-    const db2 = new Database(dbPath, { readonly: true })
-    expect(db2.prepare('select name from invitations where email = ?').get(email)).toEqual({ name: 'Ivo Lattimer' })
+    const db2 = readDb(dbPath)
+    expect(db2.get('select name from invitations where email = ?', email)).toEqual({ name: 'Ivo Lattimer' })
     db2.close()
     expect((await guest.get(`/api/invitations/${token}`)).status).toBe(410)
     const accept = await guest.post(`/api/invitations/${token}/accept`, { name: 'Too Late', password: 'a-long-enough-password' })
