@@ -3,7 +3,6 @@
 // Sec-Fetch-Site), 403 when a JSON route is sent a body that is not JSON, and
 // 413 as soon as a JSON body passes 1 MB. The rules are in server/utils/request-guard.ts.
 import type { H3Event } from 'h3'
-import { STATE_CHANGING, crossSiteProblem, declaresBody, isJsonContentType, isUploadRoute, readLimitedBody } from '~~/server/utils/request-guard'
 
 export default defineEventHandler(async (event: H3Event) => {
   const method = event.method.toUpperCase()

@@ -1,4 +1,4 @@
-// npm run bench:bench — the bench page in headless Chromium on the BUILT app:
+// npm run perf:bench-page — the bench page in headless Chromium on the BUILT app:
 // median canvas redraw time while a dial is dragged, long tasks (> 50 ms) during a
 // 2-second scripted drag, and the JavaScript the bench page transfers (gzip).
 // Prints the figures; never part of npm test (no timed assertions anywhere).

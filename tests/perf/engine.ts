@@ -1,9 +1,9 @@
 // In-process benchmark of the torsion engine: generate 100,000 cases and grade
 // 100,000 written records (the record checker's path and a full attempt).
-import { gradeAttempt, gradeKnownFinding } from '~~/server/utils/engine/attempt'
-import { generateCase } from '~~/server/utils/engine/generator'
-import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { gradeAttempt, gradeKnownFinding } from '~~/server/lib/engine/attempt'
+import { generateCase } from '~~/server/lib/engine/generator'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
+import { toPresentation } from '~~/server/lib/engine/presentation'
 import { parseRecord } from '#shared/engine/parser'
 import type { OpStats } from './stats'
 import { timeOps } from './stats'

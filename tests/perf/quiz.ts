@@ -1,4 +1,4 @@
-// npm run bench:quiz — 300 student sessions submit their quiz attempts in the same
+// npm run perf:quiz — 300 student sessions submit their quiz attempts in the same
 // second to the BUILT server. Prints how many were stored (must be all 300), p50
 // and p99 latency of the submissions, the same burst on a trivial route for a floor,
 // and the server's peak memory (VmHWM from /proc). Never part of npm test.

@@ -11,8 +11,8 @@ import { ruleSwapEvidence } from '#shared/engine/slips'
 import { slipSetOf } from '#shared/review/slipSet'
 import type { Profile } from '../../db/seed/learnerModel'
 import { SIMULATION_TEMPLATES, simulateAttempt } from '../../db/seed/learnerModel'
-import { gradeAttempt } from '../../server/utils/engine/attempt'
-import { generateCase } from '../../server/utils/engine/generator'
+import { gradeAttempt } from '~~/server/lib/engine/attempt'
+import { generateCase } from '~~/server/lib/engine/generator'
 
 /** Share of learners with each habit (invented for the benchmark: most are clean). */
 export const PROFILE_MIX: [Profile, number][] = [

@@ -1,4 +1,4 @@
-// npm run bench:review — the slip-patterns review at scale (issue 6, item 6).
+// npm run perf:review — the slip-patterns review at scale (issue 6, item 6).
 // Seeds 200,000 attempts across 600 learners into a temporary SQLite file,
 // starts the BUILT server on it, and times the review API over HTTP for several
 // filtered views. Prints the median (and p90) of each view and the ratio to a
@@ -12,7 +12,7 @@ import { migrateToLatest, openDatabase } from '../../db/open'
 import { Client, DEMO } from '../support/client'
 import { startServer } from '../support/server'
 import type { RunningServer } from '../support/server'
-import { reusedBulk, writeBulk } from './reviewData'
+import { reusedBulk, writeBulk } from './review-data'
 
 const PLAN = { learners: 600, attempts: 200_000, cohorts: 6, weeks: 26, quizzesPerCohort: 2, end: new Date('2026-12-01T00:00:00Z') }
 const RUNS = 21

@@ -1,4 +1,4 @@
-// npm run bench — the engine in-process, then grading over HTTP against the built
+// npm run perf — the engine in-process, then grading over HTTP against the built
 // server beside an anonymous and a signed-in trivial route. Prints medians and
 // the ratios (with issue 12's targets); never part of npm test.
 import { cpus } from 'node:os'

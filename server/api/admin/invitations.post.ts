@@ -1,4 +1,5 @@
 import { inviteBody } from '#shared/schemas/admin'
+import { createInvitation } from '~~/server/lib/roster/invitations'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

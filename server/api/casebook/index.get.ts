@@ -1,8 +1,8 @@
 import { z } from 'zod'
 import { listPaging } from '#shared/schemas/quiz'
-import { CASEBOOK_ROLES, caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/utils/quiz/casebook'
-import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
-import { DEFAULT_GRADE_TOLERANCE } from '~~/server/utils/engine/grader'
+import { CASEBOOK_ROLES, caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/lib/casebook/casebook'
+import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
+import { DEFAULT_GRADE_TOLERANCE } from '~~/server/lib/engine/grader'
 
 const query = z.object({ archived: z.enum(['0', '1'], { error: 'Archived must be 0 or 1.' }).default('0'), ...listPaging })
 

@@ -1,4 +1,5 @@
 import { ROLE_LABELS } from '#shared/auth/roles'
+import { invitationGone } from '~~/server/lib/roster/invitations'
 
 // Public: what an invitation link offers, so the page can show it before sign-up.
 export default defineEventHandler(async (event) => {

@@ -3,6 +3,9 @@
 import type { Distance, Gaze } from '#shared/engine/types'
 import { caseIdParams } from '#shared/schemas/practice'
 import type { PracticeCaseDetail } from '#shared/types/practice'
+import { PRACTICE_ROLES } from '~~/server/lib/practice/http'
+import { caseTurns, findOwnedCase, practiceCaseView, regenerateCase } from '~~/server/lib/practice/cases'
+import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeCaseDetail> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

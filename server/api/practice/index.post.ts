@@ -3,6 +3,10 @@
 import { randomInt } from 'node:crypto'
 import { practiceStartSchema } from '#shared/schemas/practice'
 import type { PracticeCase } from '#shared/types/practice'
+import { PRACTICE_ROLES, withCaseErrors } from '~~/server/lib/practice/http'
+import { findOwnedCase, insertCase, newCaseSeed, practiceCaseView } from '~~/server/lib/practice/cases'
+import { baseTemplateId, practiceTemplateList, resolveTemplateId } from '~~/server/lib/practice/templates'
+import { hiddenCaseSeed } from '~~/server/lib/practice/hidden-case'
 
 export default defineEventHandler(async (event): Promise<PracticeCase> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

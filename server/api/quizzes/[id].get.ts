@@ -1,7 +1,7 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
-import { staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { studentQuizDetail } from '~~/server/utils/quiz/student'
+import { quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
+import { staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { studentQuizDetail } from '~~/server/lib/quiz/student'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

@@ -2,10 +2,10 @@ import { idParam } from '#shared/schemas/admin'
 import { quizPatchBody } from '#shared/schemas/quiz'
 import type { Updateable } from 'kysely'
 import type { QuizzesTable } from '~~/db/schema'
-import { assertManagesQuiz, assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { quizLocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { sittingDeadline } from '~~/server/utils/quiz/timing'
+import { assertManagesQuiz, assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { quizLocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { sittingDeadline } from '~~/server/lib/quiz/timing'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,6 +1,6 @@
 import { quizListQuery } from '#shared/schemas/quiz'
-import { visibleQuizIds } from '~~/server/utils/quiz/access'
-import { staffSummaries, studentSummary } from '~~/server/utils/quiz/present'
+import { visibleQuizIds } from '~~/server/lib/quiz/access'
+import { staffSummaries, studentSummary } from '~~/server/lib/quiz/present'
 
 // The quizzes the caller may see: lecturers and admins every quiz; a tutor their own
 // and their cohorts'; a student the published quizzes assigned to their cohort.

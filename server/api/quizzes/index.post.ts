@@ -1,8 +1,8 @@
 import { quizCreateBody } from '#shared/schemas/quiz'
-import { assignableCohortIds } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { newQuizSeed } from '~~/server/utils/quiz/seeds'
-import { staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { assignableCohortIds } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { newQuizSeed } from '~~/server/lib/quiz/seeds'
+import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,7 +1,7 @@
 import { reviewLearnersQuery } from '#shared/schemas/review'
 import type { LearnersResponse } from '#shared/types/review'
-import { needsHelp } from '~~/server/utils/review/learners'
-import { reviewRequest } from '~~/server/utils/review/request'
+import { needsHelp } from '~~/server/lib/review/learners'
+import { reviewRequest } from '~~/server/lib/review/request'
 
 /** The ranked "needs help" list: learners showing slip patterns, with the evidence. */
 export default defineEventHandler(async (event): Promise<LearnersResponse> => {

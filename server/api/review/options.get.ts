@@ -1,7 +1,7 @@
-import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { CONDITIONS } from '#shared/engine/caseSpec'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleCohorts } from '~~/server/utils/review/scope'
+import { REVIEW_ROLES } from '~~/server/lib/review/request'
+import { visibleCohorts } from '~~/server/lib/review/scope'
 
 /** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */
 export default defineEventHandler(async (event) => {

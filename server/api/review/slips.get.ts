@@ -1,7 +1,7 @@
 import { reviewFilterQuery } from '#shared/schemas/review'
 import type { SlipsResponse } from '#shared/types/review'
-import { directionTable, slipCounts } from '~~/server/utils/review/aggregates'
-import { reviewRequest } from '~~/server/utils/review/request'
+import { directionTable, slipCounts } from '~~/server/lib/review/aggregates'
+import { reviewRequest } from '~~/server/lib/review/request'
 
 /** Counts by slip code and the direction table for the filtered attempts. */
 export default defineEventHandler(async (event): Promise<SlipsResponse> => {

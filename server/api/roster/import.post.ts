@@ -1,6 +1,8 @@
 import type { RosterImportResult } from '#shared/types/roster'
-import { readRoster } from '~~/server/utils/roster-upload'
-import { ROSTER_ROLES } from '~~/server/utils/roster'
+import { readRoster } from '~~/server/lib/roster/upload'
+import { ROSTER_ROLES } from '~~/server/lib/roster/roster'
+import type { InviteInput } from '~~/server/lib/roster/invitations'
+import { insertInvitation, mailInvitation } from '~~/server/lib/roster/invitations'
 
 // All-or-nothing: any row with a problem refuses the whole file (with the report);
 // otherwise every invitation is created in one transaction, then each is e-mailed.

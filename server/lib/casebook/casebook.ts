@@ -5,7 +5,7 @@ import type { SessionUserData } from '#shared/auth/roles'
 import type { CaseSpec } from '#shared/engine/caseSpec'
 import type { NarrowedRanges } from '#shared/schemas/casebook'
 import type { Database } from '~~/db/schema'
-import { CASE_TEMPLATES, getCaseTemplate } from '../engine/templates'
+import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/lib/engine/templates'
 
 export const CASEBOOK_ROLES = ['tutor', 'lecturer'] as const
 

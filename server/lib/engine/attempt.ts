@@ -7,12 +7,12 @@ import type { Distance, Gaze, Lights, Mode, Muscle, PerEye, Prism, RecordedDirec
 import { mapEyes } from '#shared/engine/types'
 import type { GradeOptions, GradeResult } from './grader'
 import { gradeRecord } from './grader'
-import { NOT_PERFORMED_RECORD, modelRecord } from './modelRecord'
+import { NOT_PERFORMED_RECORD, modelRecord } from './model-record'
 import { levelReadings, patientSetsRods } from './patient'
 import { horizontalAtFor } from './presentation'
-import type { InterpretationResult } from './threeStep'
-import { gradeInterpretation } from './threeStep'
-import { fundusPointer } from '../fundus/compare'
+import type { InterpretationResult } from './three-step'
+import { gradeInterpretation } from './three-step'
+import { fundusPointer } from '~~/server/lib/fundus/compare'
 import type { Case, Condition } from './types'
 
 export interface AttemptInput {

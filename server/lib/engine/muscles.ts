@@ -1,6 +1,6 @@
 // The cyclovertical muscles' actions (domain.md §7; clinical-facts §6.1) and what
 // a palsy of each one does. The generator builds palsies from these actions; the
-// three-step table in threeStep.ts is written out separately so that tests can
+// three-step table in three-step.ts is written out separately so that tests can
 // check one against the other.
 
 import type { Eye, Gaze, Muscle, Side } from '#shared/engine/types'

@@ -4,8 +4,9 @@
 
 import type { SessionUserData } from '#shared/auth/roles'
 import type { CaseRow } from '~~/db/schema'
-import type { Case } from '../engine/types'
-import { regenerateCase } from '../cases'
+import type { Case } from '~~/server/lib/engine/types'
+import { regenerateCase } from '~~/server/lib/practice/cases'
+import { cohortIdsOf } from '~~/server/lib/roster/cohorts'
 
 /** Purposes whose truth a learner may see straight after measuring (not quiz cases). */
 const OPEN_PURPOSES = ['practice', 'preview'] as const

@@ -14,7 +14,7 @@
 import { FUNDUS_SOURCES, INTER_EYE_DIFFERENCE_ABNORMAL, NORMAL_RANGES, acceptableFindings, findingForAngle } from '#shared/engine/fundus/normals'
 import type { FundusComparison } from '#shared/engine/fundus/result'
 import type { Eye, PerEye } from '#shared/engine/types'
-import type { Case } from '../engine/types'
+import type { Case } from '~~/server/lib/engine/types'
 import type { FundusTruth } from './generate'
 import { fundusForCase } from './generate'
 

@@ -27,8 +27,8 @@ import type { FundusPicture } from '#shared/engine/fundus/picture'
 import type { Rng } from '#shared/engine/random'
 import { makeRng, normal, round1 } from '#shared/engine/random'
 import type { Eye, PerEye } from '#shared/engine/types'
-import { specKey } from '../engine/generator'
-import type { Case } from '../engine/types'
+import { specKey } from '~~/server/lib/engine/generator'
+import type { Case } from '~~/server/lib/engine/types'
 
 /** Bump when a change would move a generated disc or fovea; keep old versions replayable. */
 export const FUNDUS_VERSION = 2

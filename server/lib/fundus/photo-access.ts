@@ -8,7 +8,8 @@ import type { SessionUserData } from '#shared/auth/roles'
 import type { Kysely } from 'kysely'
 import { sql } from 'kysely'
 import type { Database, FundusPhotoRow } from '~~/db/schema'
-import { feedbackReleased } from '../quiz/timing'
+import { feedbackReleased } from '~~/server/lib/quiz/timing'
+import { cohortIdsOf } from '~~/server/lib/roster/cohorts'
 
 export const seesEveryFundusPhoto = (user: SessionUserData): boolean => user.role === 'lecturer' || user.role === 'admin'
 
@@ -61,7 +62,7 @@ export async function fundusPhotoFor(user: SessionUserData, id: number): Promise
   return photo
 }
 
-/** Quiz items whose source is this photograph (`config_json.source`, see server/utils/quiz/items.ts). */
+/** Quiz items whose source is this photograph (`config_json.source`, see server/lib/quiz/items.ts). */
 export const photoItemsQuery = (db: Kysely<Database>, photoId: number) => db.selectFrom('quiz_items as qi')
   .where('qi.kind', '=', 'fundus')
   .where(sql<string>`json_extract(qi.config_json, '$.source.type')`, '=', 'photo')

@@ -5,10 +5,10 @@
 
 import type { Kysely } from 'kysely'
 import type { Database, FundusPhotoRow } from '~~/db/schema'
-import { writeAudit } from '../audit'
-import { nowIso } from '../clock'
-import type { CleanImage } from './photoFile'
-import { moveIntoPlace, newStorageName, removeQuietly, storagePath, writeTemporary } from './photoFile'
+import { writeAudit } from '~~/server/utils/audit'
+import { nowIso } from '~~/server/utils/clock'
+import type { CleanImage } from './photo-file'
+import { moveIntoPlace, newStorageName, removeQuietly, storagePath, writeTemporary } from './photo-file'
 
 export interface NewFundusPhoto {
   ownerId: number

@@ -3,7 +3,7 @@
 import type { SessionUserData } from '#shared/auth/roles'
 import type { FundusPhotoView } from '#shared/types/fundus'
 import type { FundusPhotoRow } from '~~/db/schema'
-import { managesFundusPhoto } from './photoAccess'
+import { managesFundusPhoto } from './photo-access'
 
 export async function fundusPhotoViews(user: SessionUserData, rows: FundusPhotoRow[]): Promise<FundusPhotoView[]> {
   if (!rows.length) return []

@@ -15,12 +15,12 @@ import type { RuleSwapAttempt } from '#shared/engine/slips'
 import { slipSetOf } from '#shared/review/slipSet'
 import type { AttemptResult } from '#shared/types/practice'
 import type { AttemptKind, AttemptRow, CaseRow, Database } from '~~/db/schema'
-import type { AttemptGrade, AttemptInput } from './engine/attempt'
-import { gradeAttempt } from './engine/attempt'
-import type { GradeOptions } from './engine/grader'
-import type { Case } from './engine/types'
+import type { AttemptGrade, AttemptInput } from '~~/server/lib/engine/attempt'
+import { gradeAttempt } from '~~/server/lib/engine/attempt'
+import type { GradeOptions } from '~~/server/lib/engine/grader'
+import type { Case } from '~~/server/lib/engine/types'
 import { CaseInputError, regenerateCase } from './cases'
-import { nowIso } from './clock'
+import { nowIso } from '~~/server/utils/clock'
 
 export interface RecordAttemptInput {
   /** The case row, already loaded and checked for access by the caller. */

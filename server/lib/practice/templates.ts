@@ -2,8 +2,8 @@
 // with a title that names the condition. Only for a learner who chose to see them.
 import type { Difficulty } from '#shared/engine/types'
 import type { PracticeTemplateItem } from '#shared/types/practice'
-import { CASE_TEMPLATES, getCaseTemplate } from './engine/templates'
-import type { CaseTemplate } from './engine/templates'
+import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/lib/engine/templates'
+import type { CaseTemplate } from '~~/server/lib/engine/templates'
 
 const DIFFICULTY_SUFFIX = /-(standard|challenging)$/
 

@@ -2,7 +2,7 @@
 // student, a column per item and per criterion, then totals. A UTF-8 byte-order
 // mark makes spreadsheets read accented names correctly. Written by the one CSV
 // writer (server/utils/csv.ts), so no cell runs as a formula when opened.
-import { writeCsv } from '../csv'
+import { writeCsv } from '~~/server/utils/csv'
 import { CRITERION_LABELS } from '#shared/schemas/quiz'
 import type { StudentResult } from '#shared/types/quiz'
 import type { ItemColumn } from './results'

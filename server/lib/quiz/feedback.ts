@@ -4,7 +4,7 @@
 import type { Kysely } from 'kysely'
 import type { StudentItemFeedback } from '#shared/types/quiz'
 import type { AttemptRow, Database } from '~~/db/schema'
-import { attemptResultFromRow } from '../attempts'
+import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 import type { QuizItemConfig } from './items'
 import { effectiveMarks, feedbackMarks, loadOverrides } from './results'
 

@@ -1,4 +1,4 @@
-// A fundus item's marks: the fundus grading (server/utils/fundus/grade.ts) gives
+// A fundus item's marks: the fundus grading (server/lib/fundus/grade.ts) gives
 // each measured eye an angle mark and a finding mark (0, ½ or 1); the item has two
 // criteria, each the mean over its eyes, weighted by the tutor. Overrides on fundus
 // attempts live in their own table (quiz_fundus_overrides) with the same shape.

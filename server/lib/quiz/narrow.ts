@@ -5,10 +5,10 @@
 // template id and seed alone, exactly like a practice case.
 import { createError } from 'h3'
 import type { NarrowedRanges } from '#shared/schemas/casebook'
-import { generateCase } from '../engine/generator'
-import type { CaseTemplate, NumberRange } from '../engine/templates'
-import { getCaseTemplate } from '../engine/templates'
-import type { Case } from '../engine/types'
+import { generateCase } from '~~/server/lib/engine/generator'
+import type { CaseTemplate, NumberRange } from '~~/server/lib/engine/templates'
+import { getCaseTemplate } from '~~/server/lib/engine/templates'
+import type { Case } from '~~/server/lib/engine/types'
 
 /** How many candidate seeds a derivation may try before giving up. */
 export const NARROW_MAX_TRIES = 3000

@@ -4,7 +4,7 @@
 import { createError } from 'h3'
 import type { Kysely, Transaction } from 'kysely'
 import type { CaseRow, Database, QuizItemRow, QuizRow } from '~~/db/schema'
-import { insertCase } from '../cases'
+import { insertCase } from '~~/server/lib/practice/cases'
 import { buildItemCase, itemHasCase, readItemConfig } from './items'
 
 type Db = Kysely<Database> | Transaction<Database>

@@ -1,7 +1,7 @@
 // CSV for the review's "Download CSV" buttons, through the one CSV writer
 // (server/utils/csv.ts), which defuses cells a spreadsheet would run as a formula.
-import { writeCsv } from '../csv'
-import type { CsvCell } from '../csv'
+import { writeCsv } from '~~/server/utils/csv'
+import type { CsvCell } from '~~/server/utils/csv'
 
 export type Cell = CsvCell
 

@@ -8,8 +8,8 @@ import type { SlipCode } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, focusSlips } from '#shared/review/patterns'
 import type { PatternCode } from '#shared/review/patterns'
-import { insertCase } from '../cases'
-import { chooseSetCases, modeForFocus } from './setCases'
+import { insertCase } from '~~/server/lib/practice/cases'
+import { chooseSetCases, modeForFocus } from './set-cases'
 
 /** The set's title as the learner sees it: what to practise, never the diagnosis. */
 export function setTitle(focus: PatternCode, eye?: Eye | null): string {

@@ -6,9 +6,9 @@ import type { Database } from '~~/db/schema'
 import type { PatientTurnsResult, Presentation } from '#shared/engine/presentation'
 import type { Distance, Gaze, Lights, Mode, PerEye, Prism } from '#shared/engine/types'
 import type { AttemptResult } from '#shared/types/practice'
-import { attemptResultFromRow } from '../attempts'
-import { caseTurns, regenerateCase } from '../cases'
-import { toPresentation } from '../engine/presentation'
+import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
+import { caseTurns, regenerateCase } from '~~/server/lib/practice/cases'
+import { toPresentation } from '~~/server/lib/engine/presentation'
 import type { ReviewScope } from './scope'
 
 export interface StaffReplay {

@@ -9,10 +9,10 @@
 import type { Eye, Mode } from '#shared/engine/types'
 import { EYES } from '#shared/engine/types'
 import type { PatternCode } from '#shared/review/patterns'
-import { generateCase } from '../engine/generator'
-import { CASE_TEMPLATES } from '../engine/templates'
-import { hiddenCaseSeed } from '../hidden-case'
-import type { Case } from '../engine/types'
+import { generateCase } from '~~/server/lib/engine/generator'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
+import { hiddenCaseSeed } from '~~/server/lib/practice/hidden-case'
+import type { Case } from '~~/server/lib/engine/types'
 
 /** Torsion this clear of zero cannot be read as "no torsion" within the default 2° tolerance. */
 export const CLEAR_TORSION = 3

@@ -4,7 +4,7 @@ import type { H3Event } from 'h3'
 import type { SessionUserData } from '#shared/auth/roles'
 import type { RosterReport } from '#shared/types/roster'
 import { RosterFileError, ROSTER_MAX_BYTES, checkRoster, rosterText } from './roster'
-import { assignableCohortIds } from './quiz/access'
+import { assignableCohortIds } from '~~/server/lib/quiz/access'
 
 /** Room for the multipart envelope and the other form fields around the file. */
 const ENVELOPE_BYTES = 64 * 1024

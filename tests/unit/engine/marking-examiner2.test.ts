@@ -14,8 +14,8 @@
 // Scores: 1 = full marks; 'cap' ≤ 0.5; 'pass' in (0.5, 1); 'lt1' below 1.
 
 import { describe, expect, it } from 'vitest'
-import { gradeRecord } from '~~/server/utils/engine/grader'
-import type { GradeResult } from '~~/server/utils/engine/grader'
+import { gradeRecord } from '~~/server/lib/engine/grader'
+import type { GradeResult } from '~~/server/lib/engine/grader'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
 
 interface Truth {

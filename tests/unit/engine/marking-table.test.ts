@@ -9,8 +9,8 @@
 // 'pass' = above 0.5 but below 1; 'lt1' = below 1 (not sure how far below).
 
 import { describe, expect, it } from 'vitest'
-import { gradeRecord } from '~~/server/utils/engine/grader'
-import type { GradeResult } from '~~/server/utils/engine/grader'
+import { gradeRecord } from '~~/server/lib/engine/grader'
+import type { GradeResult } from '~~/server/lib/engine/grader'
 import type { Distance, Eye, Gaze } from '#shared/engine/types'
 
 interface Truth {

@@ -7,8 +7,8 @@ import { migrateToLatest, openDatabase } from '~~/db/open'
 
 // Nitro auto-imports server utilities; a plain unit test supplies the one audit.ts uses.
 vi.stubGlobal('nowIso', () => new Date().toISOString())
-const { cleanImage, sniffImageType } = await import('~~/server/utils/fundus/photoFile')
-const { deleteFundusPhoto, storeFundusPhoto } = await import('~~/server/utils/fundus/photoStore')
+const { cleanImage, sniffImageType } = await import('~~/server/lib/fundus/photo-file')
+const { deleteFundusPhoto, storeFundusPhoto } = await import('~~/server/lib/fundus/photo-store')
 
 const dir = mkdtempSync(join(tmpdir(), 'cyclodial-fundus-store-'))
 const photoDir = join(dir, 'fundus-photos')

@@ -2,7 +2,7 @@
 // gives every existing attempt the key of its attempt_slips rows, the per-learner
 // counts read from it equal countsFromHistory, and the planner answers the
 // per-learner queries from their covering indexes without a sort (EXPLAIN QUERY
-// PLAN; no timing here — npm run bench:review measures speed).
+// PLAN; no timing here — npm run perf:review measures speed).
 import SQLite from 'better-sqlite3'
 import { Kysely, Migrator, SqliteDialect } from 'kysely'
 import type { CompiledQuery } from 'kysely'
@@ -16,8 +16,8 @@ import { reviewFilterQuery } from '#shared/schemas/review'
 import { migrateToLatest } from '../../../db/open'
 import { staticMigrationProvider } from '../../../db/migrations'
 import type { Database } from '../../../db/schema'
-import { learnerCounts, needsHelp } from '../../../server/utils/review/learners'
-import type { ReviewScope } from '../../../server/utils/review/scope'
+import { learnerCounts, needsHelp } from '~~/server/lib/review/learners'
+import type { ReviewScope } from '~~/server/lib/review/scope'
 import { attemptValues } from '../../support/reviewRows'
 import { attemptOn, historyArb } from '../../support/slipHistories'
 

@@ -1,4 +1,5 @@
 import { cohortBody } from '#shared/schemas/admin'
+import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

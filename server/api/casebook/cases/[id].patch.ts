@@ -1,6 +1,6 @@
 import { casebookCasePatch, idParam } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, casebookCaseFor, caseOut } from '~~/server/utils/quiz/casebook'
-import { caseFromSpec } from '~~/server/utils/engine/generator'
+import { CASEBOOK_ROLES, casebookCaseFor, caseOut } from '~~/server/lib/casebook/casebook'
+import { caseFromSpec } from '~~/server/lib/engine/generator'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,9 +1,9 @@
 import { randomBytes } from 'node:crypto'
 import { casePreviewBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
-import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
-import { revealTruth } from '~~/server/utils/engine/attempt'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { CASEBOOK_ROLES } from '~~/server/lib/casebook/casebook'
+import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
+import { revealTruth } from '~~/server/lib/engine/attempt'
+import { toPresentation } from '~~/server/lib/engine/presentation'
 
 // A preview shows the presentation exactly as a student receives it, and beside it
 // (for the tutor only) the truth the grader will use.

@@ -2,9 +2,9 @@ import { z } from 'zod'
 import { caseSourceSchema } from '#shared/schemas/casebook'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { seedSchema } from '#shared/engine/schemas'
-import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
-import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
-import { patientSetsRods } from '~~/server/utils/engine/patient'
+import { CASEBOOK_ROLES } from '~~/server/lib/casebook/casebook'
+import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
+import { patientSetsRods } from '~~/server/lib/engine/patient'
 
 const previewTurnBody = turnRequestSchema.extend({
   source: caseSourceSchema,

@@ -1,6 +1,6 @@
 import { casebookTemplateBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, templateOut } from '~~/server/utils/quiz/casebook'
-import { narrowingProblems } from '~~/server/utils/quiz/narrow'
+import { CASEBOOK_ROLES, templateOut } from '~~/server/lib/casebook/casebook'
+import { narrowingProblems } from '~~/server/lib/quiz/narrow'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,8 +1,9 @@
 // Delete a photograph (its uploader, a lecturer or an admin): the row, its shares and
 // the measurements made on it go in one transaction, then the file.
 import { idParam } from '#shared/schemas/admin'
-import { fundusPhotoDirFor } from '~~/server/utils/fundus/photoFile'
-import { deleteFundusPhoto } from '~~/server/utils/fundus/photoStore'
+import { fundusPhotoDirFor } from '~~/server/lib/fundus/photo-file'
+import { deleteFundusPhoto } from '~~/server/lib/fundus/photo-store'
+import { fundusPhotoFor, managesFundusPhoto, photoItemsQuery } from '~~/server/lib/fundus/photo-access'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')

@@ -1,5 +1,6 @@
 import { homeFor } from '#shared/auth/roles'
 import { acceptInvitationBody } from '#shared/schemas/auth'
+import { invitationGone } from '~~/server/lib/roster/invitations'
 
 export default defineEventHandler(async (event) => {
   const token = getRouterParam(event, 'token') ?? ''

@@ -2,6 +2,9 @@
 // practice the result, with the truth, comes back at once.
 import { caseIdParams, practiceAttemptSchema } from '#shared/schemas/practice'
 import type { PracticeAttemptResult } from '#shared/types/practice'
+import { PRACTICE_ROLES, withCaseErrors } from '~~/server/lib/practice/http'
+import { findOwnedCase, practiceCaseView } from '~~/server/lib/practice/cases'
+import { attemptResultOf, recordAttempt } from '~~/server/lib/practice/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeAttemptResult> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

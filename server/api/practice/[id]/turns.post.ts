@@ -2,6 +2,8 @@
 // server numbers the trials, so the same trial always replays the same setting.
 import type { PatientTurnsResult } from '#shared/engine/presentation'
 import { caseIdParams, turnRequestSchema } from '#shared/schemas/practice'
+import { PRACTICE_ROLES, withCaseErrors } from '~~/server/lib/practice/http'
+import { findOwnedCase, recordTurn } from '~~/server/lib/practice/cases'
 
 export default defineEventHandler(async (event): Promise<PatientTurnsResult> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,9 +1,9 @@
 import { idParam } from '#shared/schemas/admin'
-import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { newQuizSeed } from '~~/server/utils/quiz/seeds'
-import { quizItems } from '~~/server/utils/quiz/sitting'
+import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { newQuizSeed } from '~~/server/lib/quiz/seeds'
+import { quizItems } from '~~/server/lib/quiz/sitting'
 
 // A copy keeps the settings, items and (the caller's own) cohorts, unpublished,
 // with a fresh seed: new patients, so answers from the first sitting do not carry over.

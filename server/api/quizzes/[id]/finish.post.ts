@@ -1,8 +1,8 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { studentQuizDetail } from '~~/server/utils/quiz/student'
-import { sittingOf } from '~~/server/utils/quiz/sitting'
-import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { studentQuizDetail } from '~~/server/lib/quiz/student'
+import { sittingOf } from '~~/server/lib/quiz/sitting'
+import { assertSittingOpen } from '~~/server/lib/quiz/timing'
 
 // Finishing ends the sitting early: nothing can be changed after it.
 export default defineEventHandler(async (event) => {

@@ -1,7 +1,7 @@
 import { idParam } from '#shared/schemas/admin'
-import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { quizPhase } from '~~/server/utils/quiz/timing'
+import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { quizPhase } from '~~/server/lib/quiz/timing'
 
 // Release results: unlocks every student's feedback and e-mails each of them. Only
 // after the quiz has closed, so nobody still sitting it can see an answer.

@@ -1,8 +1,8 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStaff, quizReach } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { resultsCsv } from '~~/server/utils/quiz/csv'
-import { computeResults } from '~~/server/utils/quiz/results'
+import { quizForStaff, quizReach } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { resultsCsv } from '~~/server/lib/quiz/csv'
+import { computeResults } from '~~/server/lib/quiz/results'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,10 +1,10 @@
 import { idParam } from '#shared/schemas/admin'
 import { resultsQuery } from '#shared/schemas/quiz'
-import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { quizSettings } from '~~/server/utils/quiz/present'
-import { computeResults } from '~~/server/utils/quiz/results'
-import { resultsPage } from '~~/server/utils/quiz/results-page'
+import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { quizSettings } from '~~/server/lib/quiz/present'
+import { computeResults } from '~~/server/lib/quiz/results'
+import { resultsPage } from '~~/server/lib/quiz/results-page'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

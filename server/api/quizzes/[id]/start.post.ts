@@ -1,8 +1,8 @@
 import { idParam } from '#shared/schemas/admin'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { studentQuizDetail } from '~~/server/utils/quiz/student'
-import { ensureQuizCase, quizItems, sittingOf } from '~~/server/utils/quiz/sitting'
-import { quizPhase, sittingDeadline } from '~~/server/utils/quiz/timing'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { studentQuizDetail } from '~~/server/lib/quiz/student'
+import { ensureQuizCase, quizItems, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizPhase, sittingDeadline } from '~~/server/lib/quiz/timing'
 
 // Starting stores the sitting (its deadline fixed now) and every item's case in one
 // transaction. Starting again is harmless: the first start stands.

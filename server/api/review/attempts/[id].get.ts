@@ -1,7 +1,7 @@
 import { idParam } from '#shared/schemas/admin'
-import { staffReplay } from '~~/server/utils/review/replay'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { reviewScopeFor } from '~~/server/utils/review/scope'
+import { staffReplay } from '~~/server/lib/review/replay'
+import { REVIEW_ROLES } from '~~/server/lib/review/request'
+import { reviewScopeFor } from '~~/server/lib/review/scope'
 
 /** One attempt's bench state and result, for the read-only replay (tutors: their cohorts only). */
 export default defineEventHandler(async (event) => {

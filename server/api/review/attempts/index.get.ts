@@ -1,8 +1,8 @@
 import { reviewAttemptsQuery } from '#shared/schemas/review'
 import type { ReviewAttemptsResponse } from '#shared/types/review'
-import { drillAttempts } from '~~/server/utils/review/drill'
-import { reviewRequest } from '~~/server/utils/review/request'
-import { learnerInScope } from '~~/server/utils/review/scope'
+import { drillAttempts } from '~~/server/lib/review/drill'
+import { reviewRequest } from '~~/server/lib/review/request'
+import { learnerInScope } from '~~/server/lib/review/scope'
 
 /** The attempts behind a number on the review page. */
 export default defineEventHandler(async (event): Promise<ReviewAttemptsResponse> => {

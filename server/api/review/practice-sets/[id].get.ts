@@ -2,9 +2,9 @@ import { idParam } from '#shared/schemas/admin'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
-import { setProgress } from '~~/server/utils/review/practiceSets'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleSets } from '~~/server/utils/review/setAccess'
+import { setProgress } from '~~/server/lib/review/practice-sets'
+import { REVIEW_ROLES } from '~~/server/lib/review/request'
+import { visibleSets } from '~~/server/lib/review/set-access'
 
 /** One practice set and whether the focus slip became rarer after it was sent. */
 export default defineEventHandler(async (event) => {

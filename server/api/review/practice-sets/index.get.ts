@@ -1,6 +1,6 @@
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleSets } from '~~/server/utils/review/setAccess'
+import { REVIEW_ROLES } from '~~/server/lib/review/request'
+import { visibleSets } from '~~/server/lib/review/set-access'
 
 /** Practice sets sent from the review (tutors: theirs and their cohorts'), newest first. */
 export default defineEventHandler(async (event) => {

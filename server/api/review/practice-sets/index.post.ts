@@ -1,7 +1,7 @@
 import { practiceSetBody } from '#shared/schemas/review'
-import { createPracticeSet } from '~~/server/utils/review/practiceSets'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { reviewScopeFor } from '~~/server/utils/review/scope'
+import { createPracticeSet } from '~~/server/lib/review/practice-sets'
+import { REVIEW_ROLES } from '~~/server/lib/review/request'
+import { reviewScopeFor } from '~~/server/lib/review/scope'
 
 /** Send a targeted practice set to some learners or a whole cohort; each learner gets an e-mail. */
 export default defineEventHandler(async (event) => {

@@ -3,7 +3,8 @@
 // Served from the data folder, never from public/, and never cached by shared caches.
 import { readFile } from 'node:fs/promises'
 import { idParam } from '#shared/schemas/admin'
-import { fundusPhotoDirFor, storagePath } from '~~/server/utils/fundus/photoFile'
+import { fundusPhotoDirFor, storagePath } from '~~/server/lib/fundus/photo-file'
+import { fundusPhotoImageFor } from '~~/server/lib/fundus/photo-access'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

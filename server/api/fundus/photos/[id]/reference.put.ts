@@ -3,6 +3,9 @@
 import { discFoveaAngle } from '#shared/engine/fundus/geometry'
 import { idParam } from '#shared/schemas/admin'
 import { photoReferenceBody } from '#shared/schemas/fundus'
+import { fundusPhotoFor, managesFundusPhoto } from '~~/server/lib/fundus/photo-access'
+import { assertMarksOnPicture } from '~~/server/lib/fundus/attempts'
+import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')

@@ -1,6 +1,6 @@
 import { quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
-import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
+import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
+import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
 
 // Staff open any attempt of a quiz they manage; a student only their own (anyone
 // else's is 404), and its marks only once feedback is open.

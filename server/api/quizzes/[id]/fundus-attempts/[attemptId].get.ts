@@ -1,6 +1,6 @@
 import { quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
-import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
+import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
+import { quizFundusAttemptView } from '~~/server/lib/quiz/fundus-attempt-view'
 
 // A fundus item's attempt: staff open any attempt of a quiz they manage; a student
 // only their own (anyone else's is 404), and its marks only once feedback is open.

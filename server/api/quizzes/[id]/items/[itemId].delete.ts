@@ -1,8 +1,8 @@
 import { quizItemParams } from '#shared/schemas/quiz'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

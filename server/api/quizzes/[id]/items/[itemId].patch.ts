@@ -1,9 +1,9 @@
 import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/utils/quiz/items'
-import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/lib/quiz/items'
+import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

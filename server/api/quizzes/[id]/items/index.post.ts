@@ -1,9 +1,9 @@
 import { idParam } from '#shared/schemas/admin'
 import { quizItemBody } from '#shared/schemas/quiz'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { itemConfigFromBody } from '~~/server/utils/quiz/items'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { itemConfigFromBody } from '~~/server/lib/quiz/items'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,10 +1,10 @@
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
-import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { effectiveMarks, loadOverrides } from '~~/server/utils/quiz/results'
+import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
+import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/overrides'
+import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { effectiveMarks, loadOverrides } from '~~/server/lib/quiz/results'
 
 // Change one criterion's mark on the attempt that counts, with a reason; audit-logged
 // in the same transaction.
