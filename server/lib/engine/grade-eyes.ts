@@ -9,7 +9,7 @@ import type { Eye, PerEye } from '#shared/engine/types'
 import { EYES, otherEye } from '#shared/engine/types'
 import { degWords, findingWords, hasWords, wroteWords } from './grade-words'
 
-import { DIAL_FIGURE_FROM } from '#shared/engine/record/lexicon'
+import { DIAL_FIGURE_FROM } from '#shared/engine/record/word-tables'
 
 const band = (err: number, tol: number): number => (err <= tol ? 1 : err <= 2 * tol ? 0.5 : 0)
 const isDialFigure = (a: number): boolean => a >= DIAL_FIGURE_FROM && a <= 180

@@ -3,7 +3,7 @@
 // the parser reports a problem instead of choosing one.
 
 import type { Distance, Eye, Gaze, Prism } from '../types'
-import type { Sem } from './lexicon'
+import type { Sem } from './matching'
 import type { EyeRecord, GazeSection, NotPerformedReason, RecordProblem, TestName } from './types'
 
 type Tok = Sem & { text: string }
