@@ -5,12 +5,11 @@
 import { effectiveHorizontalAt, settingForLevel } from '#shared/engine/optics'
 import type { PatientTurnsResult } from '#shared/engine/presentation'
 import { makeRng, normal, round1 } from '#shared/engine/random'
-import type { Distance, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
+import type { Distance, Gaze, Lights, PerEye, Prism, PatientWords } from '#shared/engine/types'
 import { mapEyes } from '#shared/engine/types'
 import type { BenchSetting, PatientView, ViewSource } from '#shared/engine/view'
 import { buildView } from '#shared/engine/view'
 import { describeView } from '#shared/engine/words'
-import type { PatientWords } from '#shared/engine/words'
 import { STREAK_LOOKS, horizontalAtFor, responseCues, wordsKeyFor } from './presentation'
 import type { Case } from './types'
 

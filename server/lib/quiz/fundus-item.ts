@@ -20,7 +20,7 @@ import { toFundusPresentation } from '~~/server/lib/fundus/presentation'
 import type { Case } from '~~/server/lib/engine/types'
 import type { FundusItemConfig } from './items'
 import { fundusItemEyes } from './items'
-import type { OverrideRow } from './results'
+import type { OverrideRow } from './overrides'
 import { applyOverrides, feedbackMarks } from './results'
 import { fundusMarksOf } from './fundus-marks'
 

@@ -7,7 +7,7 @@ import type { FundusGradeResult } from '#shared/engine/fundus/result'
 import type { QuizCriterion } from '#shared/schemas/quiz'
 import type { EffectiveMark } from '#shared/types/quiz'
 import type { Database } from '~~/db/schema'
-import type { OverrideRow } from './results'
+import type { OverrideRow } from './overrides'
 
 const FROM_GRADE = { fundusAngle: 'angle', fundusFinding: 'finding' } as const
 

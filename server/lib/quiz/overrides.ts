@@ -6,6 +6,9 @@
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
 
+/** A tutor's override of one mark, with who made it (results, feedback and the audit read these). */
+export interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
+
 /** 409 unless the attempt is the student's last on its item. */
 export function assertCountingAttempt(attemptId: number, latestId: number): void {
   if (latestId === attemptId) return

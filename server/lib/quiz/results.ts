@@ -15,6 +15,7 @@ import { quizStudents } from './access'
 import type { EffectiveMark, ItemCell, StudentResult } from '#shared/types/quiz'
 import { sittingEnd, sittingStatus } from './timing'
 import { fundusMarksOf, loadFundusOverrides } from './fundus-marks'
+import type { OverrideRow } from './overrides'
 
 export interface ItemColumn {
   id: number
@@ -25,8 +26,6 @@ export interface ItemColumn {
   /** Points available on the item (the largest possible seen, else from the weights). */
   possible: number
 }
-
-export interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
 
 /** A tutor's overrides on marks: the latest override of each criterion wins (mutates and returns the marks). */
 export function applyOverrides(marks: EffectiveMark[], overrides: OverrideRow[]): EffectiveMark[] {
