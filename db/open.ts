@@ -33,9 +33,9 @@ export interface MigrationReport { name: string, status: 'Success' | 'Error' | '
 
 /** Runs every pending migration; throws (after logging each result) on failure. */
 export async function migrateToLatest(db: Kysely<Database>, log: (line: string) => void = () => {}): Promise<MigrationReport[]> {
-  // Migration numbers are handed out to parallel branches, so one may land before a
-  // lower number: run whichever are missing rather than refuse.
-  const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+  // Migrations run in name order and only in that order: a new one takes the next
+  // number after the highest on main when it is merged (renumber a branch's file then).
+  const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
   const { error, results = [] } = await migrator.migrateToLatest()
   for (const r of results) log(`migration ${r.migrationName}: ${r.status}`)
   if (error) throw error instanceof Error ? error : new Error(String(error))

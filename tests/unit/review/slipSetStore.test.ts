@@ -73,7 +73,7 @@ async function storedAndRecounted(db: Kysely<Database>) {
 describe('migration 0007', () => {
   it('backfills each attempt\'s slip set from its slip rows, across more than one batch, and the counts follow', async () => {
     const db = open()
-    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
     const before = await migrator.migrateTo('0006_practice_extra')
     expect(before.error).toBeUndefined()
     const { cohorts, ids, caseId } = await people(db, 40)
@@ -117,7 +117,7 @@ describe('migration 0007', () => {
 describe('migration 0012', () => {
   it('backfills each attempt\'s rule-swap evidence from its slips, truth and record, across more than one batch, and the counts follow', async () => {
     const db = open()
-    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
     expect((await migrator.migrateTo('0009_quiz_fundus')).error).toBeUndefined()
     const { cohorts, ids, caseId } = await people(db, 40)
     // 5,200 attempts: the backfill works in ranges of 5,000 attempt ids

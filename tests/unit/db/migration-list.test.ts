@@ -1,0 +1,29 @@
+// The static migration list (a bundled server cannot read the folder) holds every
+// file in db/migrations, in name order: the migrator runs them in that order only.
+import { readdirSync } from 'node:fs'
+import { fileURLToPath } from 'node:url'
+import { Kysely, Migrator, SqliteDialect } from 'kysely'
+import Database from 'better-sqlite3'
+import { describe, expect, it } from 'vitest'
+import { migrations, staticMigrationProvider } from '~~/db/migrations'
+
+const folder = fileURLToPath(new URL('../../../db/migrations/', import.meta.url))
+
+describe('migration list', () => {
+  it('names every migration file once, sorted', () => {
+    const files = readdirSync(folder).filter(f => /^\d{4}_\w+\.ts$/.test(f)).map(f => f.replace(/\.ts$/, ''))
+    const names = Object.keys(migrations)
+    expect(names).toEqual([...files].sort())
+    expect(names).toEqual([...names].sort())
+  })
+
+  it('refuses a database whose migrations ran out of name order', async () => {
+    const db = new Kysely<any>({ dialect: new SqliteDialect({ database: new Database(':memory:') }) })
+    const [first, second, third] = Object.keys(migrations)
+    const only = (names: string[]) => ({ getMigrations: async () => Object.fromEntries(names.map(n => [n, migrations[n]!])) })
+    expect((await new Migrator({ db, provider: only([first!, third!]) }).migrateToLatest()).error).toBeUndefined()
+    const { error } = await new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false }).migrateToLatest()
+    expect(String(error)).toMatch(new RegExp(second!))
+    await db.destroy()
+  })
+})
