@@ -1,8 +1,8 @@
 // The Kysely Database interface: one table type per table. SQLite returns
 // booleans as 0/1 and timestamps as ISO-8601 text, so the types say so.
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely'
+import type { Role } from '../shared/auth/roles'
 
-export type Role = 'student' | 'tutor' | 'lecturer' | 'admin'
 /** ISO-8601 UTC timestamp stored as text. */
 export type Timestamp = string
 export type Flag = 0 | 1

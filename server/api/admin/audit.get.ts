@@ -1,4 +1,4 @@
-import { pageQuery } from '#shared/schemas/admin'
+import { pageQuery } from '#shared/schemas/common'
 import { auditActionWords, auditChangeWords, auditTargetWords } from '#shared/audit/words'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { pageQuery } from '#shared/schemas/admin'
+import { pageQuery } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')

@@ -1,6 +1,7 @@
+import { listPaging } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
-import { listPaging } from '#shared/schemas/quiz'
-import { CASEBOOK_ROLES, caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/lib/casebook/casebook'
+import { caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/lib/casebook/casebook'
 import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
 import { DEFAULT_GRADE_TOLERANCE } from '~~/server/lib/engine/grader'
 

@@ -1,8 +1,8 @@
 // My practice attempts, newest first.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { practiceHistoryQuery } from '#shared/schemas/practice'
 import type { PracticeHistory } from '#shared/types/practice'
 import { getCaseTemplate } from '~~/server/lib/engine/templates'
-import { PRACTICE_ROLES } from '~~/server/lib/practice/http'
 import { baseTemplateId } from '~~/server/lib/practice/templates'
 
 export default defineEventHandler(async (event): Promise<PracticeHistory> => {

@@ -1,4 +1,4 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'

@@ -1,9 +1,9 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizPatchBody } from '#shared/schemas/quiz'
 import type { Updateable } from 'kysely'
 import type { QuizzesTable } from '~~/db/schema'
 import { assertManagesQuiz, assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { quizLocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { sittingDeadline } from '~~/server/lib/quiz/timing'
 

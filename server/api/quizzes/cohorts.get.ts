@@ -1,5 +1,5 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assignableCohortIds } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 
 // The cohorts the caller may assign a quiz (or a roster) to: a tutor's own; lecturers and admins all.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizCreateBody } from '#shared/schemas/quiz'
 import { assignableCohortIds } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { newQuizSeed } from '~~/server/lib/quiz/seeds'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 

@@ -1,3 +1,4 @@
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { EXPORT_TABLES, reviewAttemptsQuery, reviewFilterQuery, reviewLearnersQuery } from '#shared/schemas/review'
 import { AMOUNT_BAND_EDGES } from '#shared/review/bands'
@@ -6,7 +7,6 @@ import { toCsv } from '~~/server/lib/review/csv'
 import type { Cell } from '~~/server/lib/review/csv'
 import { drillAttempts } from '~~/server/lib/review/drill'
 import { needsHelp } from '~~/server/lib/review/learners'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { learnerInScope, reviewScopeFor } from '~~/server/lib/review/scope'
 
 const tableQuery = z.object({ table: z.enum(EXPORT_TABLES, { error: `Table must be one of ${EXPORT_TABLES.join(', ')}.` }) })

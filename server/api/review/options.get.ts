@@ -1,6 +1,6 @@
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { CONDITIONS } from '#shared/engine/caseSpec'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { visibleCohorts } from '~~/server/lib/review/scope'
 
 /** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */

@@ -1,6 +1,6 @@
+import { ROSTER_ROLES } from '#shared/auth/roles'
 import type { RosterImportResult } from '#shared/types/roster'
 import { readRoster } from '~~/server/lib/roster/upload'
-import { ROSTER_ROLES } from '~~/server/lib/roster/roster'
 import type { InviteInput } from '~~/server/lib/roster/invitations'
 import { insertInvitation, mailInvitation } from '~~/server/lib/roster/invitations'
 

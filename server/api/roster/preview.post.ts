@@ -1,5 +1,5 @@
+import { ROSTER_ROLES } from '#shared/auth/roles'
 import { readRoster } from '~~/server/lib/roster/upload'
-import { ROSTER_ROLES } from '~~/server/lib/roster/roster'
 
 // Check a roster CSV without importing anything: a report line per row.
 export default defineEventHandler(async (event) => {

@@ -7,8 +7,6 @@ import type { NarrowedRanges } from '#shared/schemas/casebook'
 import type { Database } from '~~/db/schema'
 import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/lib/engine/templates'
 
-export const CASEBOOK_ROLES = ['tutor', 'lecturer'] as const
-
 /** Lecturers see and edit every casebook; a tutor their own. */
 export const seesEveryCasebook = (user: SessionUserData) => user.role === 'lecturer' || user.role === 'admin'
 

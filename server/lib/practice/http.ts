@@ -13,6 +13,3 @@ export async function withCaseErrors<T>(work: () => Promise<T>): Promise<T> {
     throw createError({ statusCode: error.status, message: error.message, data: { code: error.code, fields } })
   }
 }
-
-/** Who may practise: every role (staff try cases too); each sees only their own. */
-export const PRACTICE_ROLES = ['student', 'tutor', 'lecturer', 'admin'] as const

@@ -117,6 +117,3 @@ export function checkRoster(text: string, ctx: RosterContext): RosterReport {
   const invalid = rows.filter(r => r.problems.length).length
   return { rows, total: rows.length, valid: rows.length - invalid, invalid, canImport: invalid === 0 }
 }
-
-/** Staff who may upload a roster. */
-export const ROSTER_ROLES = ['tutor', 'lecturer', 'admin'] as const

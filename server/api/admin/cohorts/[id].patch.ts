@@ -1,4 +1,5 @@
-import { cohortBody, idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { cohortBody } from '#shared/schemas/admin'
 import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
 export default defineEventHandler(async (event) => {

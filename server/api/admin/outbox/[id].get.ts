@@ -1,4 +1,4 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')

@@ -1,4 +1,5 @@
-import { idParam, userPatchBody } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { userPatchBody } from '#shared/schemas/admin'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

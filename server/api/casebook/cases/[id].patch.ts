@@ -1,5 +1,7 @@
-import { casebookCasePatch, idParam } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, casebookCaseFor, caseOut } from '~~/server/lib/casebook/casebook'
+import { idParam } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import { casebookCasePatch } from '#shared/schemas/casebook'
+import { casebookCaseFor, caseOut } from '~~/server/lib/casebook/casebook'
 import { caseFromSpec } from '~~/server/lib/engine/generator'
 
 export default defineEventHandler(async (event) => {

@@ -1,5 +1,6 @@
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCaseBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, caseOut } from '~~/server/lib/casebook/casebook'
+import { caseOut } from '~~/server/lib/casebook/casebook'
 import { caseFromSpec } from '~~/server/lib/engine/generator'
 
 export default defineEventHandler(async (event) => {

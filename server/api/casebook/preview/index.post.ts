@@ -1,6 +1,6 @@
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { randomBytes } from 'node:crypto'
 import { casePreviewBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES } from '~~/server/lib/casebook/casebook'
 import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
 import { revealTruth } from '~~/server/lib/engine/attempt'
 import { toPresentation } from '~~/server/lib/engine/presentation'

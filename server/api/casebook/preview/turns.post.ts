@@ -1,8 +1,8 @@
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { caseSourceSchema } from '#shared/schemas/casebook'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { seedSchema } from '#shared/engine/schemas'
-import { CASEBOOK_ROLES } from '~~/server/lib/casebook/casebook'
 import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
 import { patientSetsRods } from '~~/server/lib/engine/patient'
 

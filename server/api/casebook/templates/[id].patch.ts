@@ -1,5 +1,7 @@
-import { casebookTemplatePatch, idParam } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, casebookTemplateFor, templateOut } from '~~/server/lib/casebook/casebook'
+import { idParam } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import { casebookTemplatePatch } from '#shared/schemas/casebook'
+import { casebookTemplateFor, templateOut } from '~~/server/lib/casebook/casebook'
 import { narrowingProblems } from '~~/server/lib/quiz/narrow'
 
 export default defineEventHandler(async (event) => {

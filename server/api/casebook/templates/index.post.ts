@@ -1,5 +1,6 @@
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookTemplateBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, templateOut } from '~~/server/lib/casebook/casebook'
+import { templateOut } from '~~/server/lib/casebook/casebook'
 import { narrowingProblems } from '~~/server/lib/quiz/narrow'
 
 export default defineEventHandler(async (event) => {

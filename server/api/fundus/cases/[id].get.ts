@@ -1,7 +1,7 @@
 // The fundus photographs of one of the caller's practice cases: the dial-free
 // pictures, earlier measurements with their feedback, and — once both a fundus
 // measurement and a double Maddox rod record exist — subjective against objective.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { compareWithDmr } from '~~/server/lib/fundus/compare'
 import { fundusForCase } from '~~/server/lib/fundus/generate'
 import { toFundusPresentation } from '~~/server/lib/fundus/presentation'

@@ -1,6 +1,6 @@
 // Delete a photograph (its uploader, a lecturer or an admin): the row, its shares and
 // the measurements made on it go in one transaction, then the file.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { fundusPhotoDirFor } from '~~/server/lib/fundus/photo-file'
 import { deleteFundusPhoto } from '~~/server/lib/fundus/photo-store'
 import { fundusPhotoFor, managesFundusPhoto, photoItemsQuery } from '~~/server/lib/fundus/photo-access'

@@ -1,6 +1,6 @@
 // Autosave the bench (dials, prisms, lights, record pad) so a reload resumes it.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { benchDraftSchema, caseIdParams } from '#shared/schemas/practice'
-import { PRACTICE_ROLES } from '~~/server/lib/practice/http'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

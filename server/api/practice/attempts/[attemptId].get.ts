@@ -1,8 +1,8 @@
 // Read-only replay of one of my practice attempts, exactly as it was graded.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { attemptIdParams } from '#shared/schemas/practice'
 import type { AttemptReplay } from '#shared/types/practice'
 import { toPresentation } from '~~/server/lib/engine/presentation'
-import { PRACTICE_ROLES } from '~~/server/lib/practice/http'
 import { caseTitle, regenerateCase } from '~~/server/lib/practice/cases'
 import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 

@@ -1,6 +1,6 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { newQuizSeed } from '~~/server/lib/quiz/seeds'
 import { quizItems } from '~~/server/lib/quiz/sitting'

@@ -1,6 +1,6 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { quizPhase } from '~~/server/lib/quiz/timing'
 
 // Release results: unlocks every student's feedback and e-mails each of them. Only

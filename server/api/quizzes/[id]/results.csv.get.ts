@@ -1,6 +1,6 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizForStaff, quizReach } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { resultsCsv } from '~~/server/lib/quiz/csv'
 import { computeResults } from '~~/server/lib/quiz/results'
 

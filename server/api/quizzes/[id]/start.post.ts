@@ -1,4 +1,4 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'
 import { ensureQuizCase, quizItems, sittingOf } from '~~/server/lib/quiz/sitting'

@@ -1,6 +1,6 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { staffReplay } from '~~/server/lib/review/replay'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { reviewScopeFor } from '~~/server/lib/review/scope'
 
 /** One attempt's bench state and result, for the read-only replay (tutors: their cohorts only). */

@@ -1,9 +1,9 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
 import { setProgress } from '~~/server/lib/review/practice-sets'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { visibleSets } from '~~/server/lib/review/set-access'
 
 /** One practice set and whether the focus slip became rarer after it was sent. */

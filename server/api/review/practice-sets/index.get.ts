@@ -1,5 +1,5 @@
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { visibleSets } from '~~/server/lib/review/set-access'
 
 /** Practice sets sent from the review (tutors: theirs and their cohorts'), newest first. */

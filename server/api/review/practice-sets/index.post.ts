@@ -1,6 +1,6 @@
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { practiceSetBody } from '#shared/schemas/review'
 import { createPracticeSet } from '~~/server/lib/review/practice-sets'
-import { REVIEW_ROLES } from '~~/server/lib/review/request'
 import { reviewScopeFor } from '~~/server/lib/review/scope'
 
 /** Send a targeted practice set to some learners or a whole cohort; each learner gets an e-mail. */

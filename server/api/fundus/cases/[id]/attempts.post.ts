@@ -1,6 +1,6 @@
 // A learner's disc–fovea measurement of both eyes of their practice case, graded
 // against the case's fundus. The angle is computed here from the marks.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { caseFundusAttemptBody } from '#shared/schemas/fundus'
 import { compareWithDmr } from '~~/server/lib/fundus/compare'
 import { fundusForCase } from '~~/server/lib/fundus/generate'

@@ -1,5 +1,5 @@
 // A learner measures an uploaded photograph: graded against the tutor's reference marks.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { photoFundusAttemptBody } from '#shared/schemas/fundus'
 import { ddUnitFromMarks, gradeFundus } from '~~/server/lib/fundus/grade'
 import { fundusPhotoFor } from '~~/server/lib/fundus/photo-access'

@@ -1,8 +1,8 @@
 // The photograph's bytes, only for signed-in people allowed to see it — the library
 // rule, or a quiz that uses the photograph (fundusPhotoImageFor) — others: 404.
 // Served from the data folder, never from public/, and never cached by shared caches.
+import { idParam } from '#shared/schemas/common'
 import { readFile } from 'node:fs/promises'
-import { idParam } from '#shared/schemas/admin'
 import { fundusPhotoDirFor, storagePath } from '~~/server/lib/fundus/photo-file'
 import { fundusPhotoImageFor } from '~~/server/lib/fundus/photo-access'
 

@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'
 

@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/lib/quiz/items'
 import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'

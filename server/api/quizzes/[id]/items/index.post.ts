@@ -1,7 +1,7 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemBody } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { itemConfigFromBody } from '~~/server/lib/quiz/items'
 

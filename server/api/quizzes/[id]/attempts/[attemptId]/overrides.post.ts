@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/overrides'
 import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
 import { readItemConfig } from '~~/server/lib/quiz/items'

@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { KIND_CRITERIA, overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/overrides'
 import { quizFundusAttemptView } from '~~/server/lib/quiz/fundus-attempt-view'
 import type { FundusItemConfig } from '~~/server/lib/quiz/items'

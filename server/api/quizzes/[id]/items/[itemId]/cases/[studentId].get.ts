@@ -1,6 +1,6 @@
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizStudentCaseParams } from '#shared/schemas/quiz'
 import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
-import { QUIZ_STAFF } from '~~/server/lib/quiz/staff'
 import { buildItemCase, readItemConfig } from '~~/server/lib/quiz/items'
 import { quizCaseRow, quizItemOf } from '~~/server/lib/quiz/sitting'
 import { regenerateCase } from '~~/server/lib/practice/cases'
