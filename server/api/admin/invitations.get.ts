@@ -1,3 +1,4 @@
+// GET /api/admin/invitations (admin): the invitations sent, paged.
 import { pageQuery } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {

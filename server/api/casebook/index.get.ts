@@ -1,3 +1,8 @@
+// GET /api/casebook (tutor, lecturer): `?archived=0\|1&page&pageSize` (page from 1;
+// `pageSize` 1–100, default 50, the same page of templates and of exact cases, each in
+// title order) → `{ engine: [case templates with published ranges and sources],
+// templates, cases, defaults: { tolerance, weights }, page, pageSize, templatesTotal,
+// casesTotal }` (a tutor sees their own entries, a lecturer everyone's)
 import { listPaging } from '#shared/schemas/common'
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'

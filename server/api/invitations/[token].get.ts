@@ -1,3 +1,5 @@
+// GET /api/invitations/:token (anyone): what the invitation offers (e-mail, role,
+// cohort, the name given by whoever invited); `410` when used or expired
 import { ROLE_LABELS } from '#shared/auth/roles'
 import { invitationGone } from '~~/server/lib/roster/invitations'
 

@@ -1,3 +1,7 @@
+// GET /api/quizzes/:id (manager / assigned student): staff: settings, cohorts, items
+// (source, mode, tolerance, weights), `locked`; a student: the sitting and each item's
+// prompt and progress — marks, slips and the truth only once feedback is open. Anyone
+// else `404`
 import { idParam } from '#shared/schemas/common'
 import { quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'

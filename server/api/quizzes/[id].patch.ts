@@ -1,3 +1,8 @@
+// PATCH /api/quizzes/:id (owner, lecturer, admin (another tutor `403`)): any setting,
+// `cohortIds`, `published`, `archived`; publishing needs an item, a cohort and both
+// times; items and the interpretation setting are fixed (`409`) once a student has
+// started; after release the close time may come forward but not move later or go (`409`
+// naming `closesAt`)
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizPatchBody } from '#shared/schemas/quiz'

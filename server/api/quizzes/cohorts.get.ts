@@ -1,3 +1,4 @@
+// GET /api/quizzes/cohorts (tutor, lecturer, admin): the cohorts the caller may assign
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assignableCohortIds } from '~~/server/lib/quiz/access'
 

@@ -1,3 +1,11 @@
+// GET /api/quizzes (signed in): the quizzes the caller may see — lecturers and admins
+// all, a tutor their own and their cohorts', a student the published ones of their
+// cohort; `?archived=1` for staff; paged, newest opening first: `?page` (from 1)
+// `&pageSize` (1–100, default 50). Staff: `{ items: [{ id, title, phase, opensAt,
+// closesAt, cohorts, itemCount, students, started, … }], total, page, pageSize }`;
+// students: `{ items: [{ id, title, phase, opensAt, closesAt, timeLimitMinutes,
+// itemCount, feedbackOpen, sitting: { status, startedAt, deadline } }], total, page,
+// pageSize }`
 import { quizListQuery } from '#shared/schemas/quiz'
 import { visibleQuizIds } from '~~/server/lib/quiz/access'
 import { staffSummaries, studentSummary } from '~~/server/lib/quiz/present'

@@ -1,3 +1,7 @@
+// POST /api/quizzes (tutor, lecturer, admin): `{ title, instructions?, opensAt?,
+// closesAt?, timeLimitMinutes?, attemptsAllowed?, interpretation?, holdFeedback?,
+// cohortIds? }` (ISO 8601 times; a tutor assigns only cohorts they teach) → `201` the
+// quiz
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizCreateBody } from '#shared/schemas/quiz'
 import { assignableCohortIds } from '~~/server/lib/quiz/access'

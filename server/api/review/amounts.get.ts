@@ -1,3 +1,5 @@
+// GET /api/review/amounts (tutor, lecturer): same filters → `{ bands: [{ band, label,
+// RE, LE }], recorded: { RE, LE } }` (recorded amount − true amount, degrees)
 import { reviewFilterQuery } from '#shared/schemas/review'
 import type { AmountsResponse } from '#shared/types/review'
 import { amountBands } from '~~/server/lib/review/aggregates'

@@ -1,3 +1,6 @@
+// GET /api/review/export.csv (tutor, lecturer): `table`
+// (`slips`\|`directions`\|`amounts`\|`trend`\|`learners`\|`attempts`) + the same filters
+// → `text/csv` (cells that a spreadsheet would run as a formula get a leading `'`)
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { EXPORT_TABLES, reviewAttemptsQuery, reviewFilterQuery, reviewLearnersQuery } from '#shared/schemas/review'

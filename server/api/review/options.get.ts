@@ -1,3 +1,5 @@
+// GET /api/review/options (tutor, lecturer): what the filters offer the caller: `{
+// cohorts, templates, conditions, quizzes, role }`
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { CONDITIONS } from '#shared/engine/caseSpec'

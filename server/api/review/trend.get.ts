@@ -1,3 +1,5 @@
+// GET /api/review/trend (tutor, lecturer): same filters → `{ weeks: [{ week /* Monday
+// */, attempts, slips: { code: n } }], codes }`
 import { SLIP_CODES } from '#shared/engine/slips'
 import { reviewFilterQuery } from '#shared/schemas/review'
 import type { TrendResponse } from '#shared/types/review'

@@ -1,3 +1,6 @@
+// POST /api/roster/import (tutor, lecturer, admin): the same upload; every row valid →
+// `201 { imported, mailed, message }` (invitations created in one transaction, then
+// e-mailed); any problem → `400` with the report and nothing imported
 import { ROSTER_ROLES } from '#shared/auth/roles'
 import type { RosterImportResult } from '#shared/types/roster'
 import { readRoster } from '~~/server/lib/roster/upload'

@@ -1,3 +1,6 @@
+// POST /api/roster/preview (tutor, lecturer, admin): multipart `file` (CSV, ≤ 1 MB;
+// `413` if larger, `415` if not CSV text) and optional `cohortId` → `{ rows: [{ line,
+// name, email, cohort, problems }], total, valid, invalid, canImport }`
 import { ROSTER_ROLES } from '#shared/auth/roles'
 import { readRoster } from '~~/server/lib/roster/upload'
 

@@ -1,3 +1,4 @@
+// GET /api/admin/outbox/:id (admin): one caught message.
 import { idParam } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {

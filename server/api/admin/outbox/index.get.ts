@@ -1,3 +1,4 @@
+// GET /api/admin/outbox (admin): caught mail and the retry queue, paged.
 import { pageQuery } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {

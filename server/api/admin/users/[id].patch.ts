@@ -1,3 +1,5 @@
+// PATCH /api/admin/users/:id (admin): `{ name?, role?, disabled?, cohortIds? }`; a new
+// role or disabling ends every session of that person
 import { idParam } from '#shared/schemas/common'
 import { userPatchBody } from '#shared/schemas/admin'
 

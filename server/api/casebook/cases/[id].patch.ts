@@ -1,3 +1,5 @@
+// PATCH /api/casebook/cases/:id (tutor, lecturer): change an exact case, or `{ archived
+// }`.
 import { idParam } from '#shared/schemas/common'
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCasePatch } from '#shared/schemas/casebook'

@@ -1,3 +1,6 @@
+// POST /api/casebook/cases (tutor, lecturer): `{ title, spec /* caseSpecSchema */,
+// tolerance? }`; impossible entries are 400 with paths such as
+// `spec.gazes.primary.torsion.RE`.
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCaseBody } from '#shared/schemas/casebook'
 import { caseOut } from '~~/server/lib/casebook/casebook'

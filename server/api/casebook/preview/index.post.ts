@@ -1,3 +1,6 @@
+// POST /api/casebook/preview (tutor, lecturer): `{ source: { type: 'engine', templateId
+// } \| { type: 'template' \| 'case', id }, seed?, mode? }` → `{ title, seed, mode,
+// presentation, truth, tolerance }` (the presentation is exactly what a student gets)
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { randomBytes } from 'node:crypto'
 import { casePreviewBody } from '#shared/schemas/casebook'

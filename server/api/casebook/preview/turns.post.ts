@@ -1,3 +1,6 @@
+// POST /api/casebook/preview/turns (tutor, lecturer): `{ source, seed, trial, gaze,
+// distance, prisms?, lights? }` → the patient's turn on the previewed case (nothing
+// stored)
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { caseSourceSchema } from '#shared/schemas/casebook'

@@ -1,3 +1,5 @@
+// PATCH /api/casebook/templates/:id (tutor, lecturer): change a narrowed template, or `{
+// archived }`.
 import { idParam } from '#shared/schemas/common'
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookTemplatePatch } from '#shared/schemas/casebook'

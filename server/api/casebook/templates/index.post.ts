@@ -1,3 +1,6 @@
+// POST /api/casebook/templates (tutor, lecturer): `{ title, templateId, ranges?,
+// tolerance?, notes? }`; ranges must sit inside the published ones and leave the
+// generator room (400 naming `ranges.torsion`…).
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookTemplateBody } from '#shared/schemas/casebook'
 import { templateOut } from '~~/server/lib/casebook/casebook'

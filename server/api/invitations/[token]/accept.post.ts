@@ -1,3 +1,5 @@
+// POST /api/invitations/:token/accept (anyone): `{ name, password }` → creates the
+// account and signs in; the password rules of *Passwords* apply
 import { homeFor } from '#shared/auth/roles'
 import { acceptInvitationBody } from '#shared/schemas/auth'
 import { invitationGone } from '~~/server/lib/roster/invitations'

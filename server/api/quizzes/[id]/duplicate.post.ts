@@ -1,3 +1,4 @@
+// POST /api/quizzes/:id/duplicate (manager): an unpublished copy with a new seed → `201`
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'

@@ -1,3 +1,4 @@
+// POST /api/quizzes/:id/finish (student, assigned): finish the sitting early.
 import { idParam } from '#shared/schemas/common'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'

@@ -1,3 +1,7 @@
+// POST /api/quizzes/:id/release (owner, lecturer, admin (another tutor `403`)): after
+// the close time: opens feedback and e-mails every student of the cohorts; `409` while
+// open. Released means final: no new sittings, saves or submissions (`409`), and the
+// close time cannot move later
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/lib/quiz/access'

@@ -1,3 +1,6 @@
+// GET /api/quizzes/:id/results.csv (tutor, lecturer, admin (manager; a tutor: their
+// cohorts' students only)): `text/csv`: one row per student, a column per item and per
+// criterion, slips and totals
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizForStaff, quizReach } from '~~/server/lib/quiz/access'

@@ -1,3 +1,11 @@
+// GET /api/quizzes/:id/results (manager (a tutor: their cohorts' students only)):
+// `?q&cohortId&status&sort=name\|total\|slips\|time\|status\|item-<id>&dir&page&pageSize`
+// → `{ quiz, columns, items: [{ studentId, name, status, items: { [itemId]: { attemptId,
+// earned, possible, marks, slips, overridden } }, earned, possible, score, slips,
+// timeTakenMs }], total, page, pageSize, summary: { students, started, finished,
+// meanScore /* those who finished; null while nobody has */ }, release: { students,
+// neverSat } \| null /* what releasing would e-mail; for whoever may release, before
+// release */ }`
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { resultsQuery } from '#shared/schemas/quiz'

@@ -1,3 +1,5 @@
+// POST /api/quizzes/:id/start (student, assigned): start the sitting (fixes the
+// deadline; starting twice changes nothing).
 import { idParam } from '#shared/schemas/common'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'

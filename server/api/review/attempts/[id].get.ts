@@ -1,3 +1,6 @@
+// GET /api/review/attempts/:id (tutor (own cohorts), lecturer): staff replay: `{
+// attempt, result, case: { …, presentation }, turns, learner, cohort, kind, quizId }`;
+// `404` outside the caller's cohorts
 import { idParam } from '#shared/schemas/common'
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { staffReplay } from '~~/server/lib/review/replay'

@@ -1,3 +1,7 @@
+// GET /api/review/attempts (tutor, lecturer): same filters + `code`, `learnerId`,
+// `trueDirection`, `recordedDirection`, `amountBand` (the last three need `eye`),
+// `page`, `pageSize` → `{ items: [{ id, learner, cohort, kind, quizId, quizTitle,
+// templateId, condition, submittedAt, score, record, slips }], total, page, pageSize }`
 import { reviewAttemptsQuery } from '#shared/schemas/review'
 import type { ReviewAttemptsResponse } from '#shared/types/review'
 import { drillAttempts } from '~~/server/lib/review/drill'

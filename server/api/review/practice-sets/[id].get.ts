@@ -1,3 +1,6 @@
+// GET /api/review/practice-sets/:id (tutor, lecturer): one set with `before`/`after` (`{
+// attempts, slipped, rate /* per 100 */ }`) overall and per learner, cases done and the
+// conditions used.
 import { idParam } from '#shared/schemas/common'
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { SLIP_INFO } from '#shared/engine/slips'

@@ -1,3 +1,5 @@
+// GET /api/review/practice-sets (tutor: theirs and their cohorts'; lecturer): the
+// practice sets sent.
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
 import { visibleSets } from '~~/server/lib/review/set-access'

@@ -1,3 +1,8 @@
+// GET /api/quizzes/:id/attempts/:attemptId (manager (a tutor: their cohorts' students),
+// or the student who made it): the attempt as left (gaze, distance, readings, prisms,
+// lights, record, trial), the patient's turn, the presentation and — for staff, or the
+// student once feedback is open — the marks with overrides; another student's attempt is
+// `404`
 import { quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'

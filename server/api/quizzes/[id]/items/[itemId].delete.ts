@@ -1,3 +1,5 @@
+// DELETE /api/quizzes/:id/items/:itemId (owner, lecturer, admin; another tutor 403):
+// remove an item (409 once the quiz is locked).
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'

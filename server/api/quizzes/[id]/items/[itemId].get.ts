@@ -1,3 +1,11 @@
+// GET /api/quizzes/:id/items/:itemId (student (assigned, started)): `{ kind: 'dmr',
+// caseId, prompt, mode, readScale, interpretation, presentation, draft, turns, attempts:
+// [{ attemptId, submittedAt }], attemptsLeft, deadline, serverNow }`, or `{ kind:
+// 'fundus', prompt, eyes, presentation: null, pictures: { RE?, LE?: { imageUrl, width,
+// height, eye } } /* a case's fundus as server-rendered PNGs, sized in disc diameters
+// */, photo: { imageUrl, width, height, eye }, draft, attempts, attemptsLeft, deadline,
+// serverNow }` — never the truth, reference marks, angle or a generated picture's disc
+// and fovea coordinates
 import type { StudentQuizItemPage } from '#shared/types/quiz'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/lib/quiz/access'

@@ -1,3 +1,5 @@
+// PATCH /api/quizzes/:id/items/:itemId (owner, lecturer, admin; another tutor 403):
+// change an item (409 once the quiz is locked).
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'

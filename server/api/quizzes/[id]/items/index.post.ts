@@ -1,3 +1,5 @@
+// POST /api/quizzes/:id/items (owner, lecturer, admin; another tutor 403): add an item,
+// `{ kind: 'dmr' | 'fundus', … }` (shared/schemas/quiz.ts quizItemBody).
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemBody } from '#shared/schemas/quiz'

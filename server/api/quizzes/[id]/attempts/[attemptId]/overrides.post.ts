@@ -1,3 +1,6 @@
+// POST /api/quizzes/:id/attempts/:attemptId/overrides (manager (a tutor: their cohorts'
+// students; others `404`)): `{ criterion, score /* 0–1 */, reason }` on the attempt that
+// counts; audit-logged → `201` the attempt
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'

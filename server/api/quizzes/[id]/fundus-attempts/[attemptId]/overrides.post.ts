@@ -1,3 +1,6 @@
+// POST /api/quizzes/:id/fundus-attempts/:attemptId/overrides (manager (a tutor: their
+// cohorts' students; others `404`)): `{ criterion: 'fundusAngle' \| 'fundusFinding',
+// score, reason }` on the attempt that counts; audit-logged → `201` the attempt
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { KIND_CRITERIA, overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'

@@ -1,3 +1,9 @@
+// POST /api/quizzes/:id/items/:itemId/attempts (student): as for practice (`trial` in
+// patient-turns), or for a fundus item `{ eyes: { RE?, LE?: { disc, fovea, finding } }
+// }` with exactly the item's eyes (`400` naming `eyes.RE`… when one is missing, extra or
+// off the picture) → `201 { attemptId, submittedAt, attemptsLeft, message }` — no marks;
+// `409` after the deadline, the close time, finishing, the release of the results, or
+// the last allowed submission
 import type { GradeCriterion } from '~~/server/lib/engine/grader'
 import { practiceAttemptSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'

@@ -1,3 +1,7 @@
+// PUT /api/quizzes/:id/items/:itemId/draft (student): the bench (as for practice), or
+// for a fundus item `{ eyes: { RE?, LE?: { disc, fovea, finding } /* each may be null */
+// } }` → `{ savedAt }`; `409` with a message once the deadline has passed (what was
+// saved stays)
 import { benchDraftSchema } from '#shared/schemas/practice'
 import { fundusItemDraftBody, quizItemParams } from '#shared/schemas/quiz'
 import { readItemConfig } from '~~/server/lib/quiz/items'

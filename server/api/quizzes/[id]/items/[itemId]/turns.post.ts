@@ -1,3 +1,5 @@
+// POST /api/quizzes/:id/items/:itemId/turns (student): patient-turns: as for practice
+// (`409` on a fundus item)
 import type { PatientTurnsResult } from '#shared/engine/presentation'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'

@@ -1,3 +1,7 @@
+// GET /api/quizzes/:id/items/:itemId/cases/:studentId (manager (a tutor: their cohorts'
+// students)): exactly the patient that student gets on that item: `{ kind: 'dmr',
+// stored, seed, presentation, draft, truth }`, or for a fundus item `{ kind: 'fundus',
+// stored, seed, presentation \| photo, draft, reference, angles }`
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizStudentCaseParams } from '#shared/schemas/quiz'
 import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
