@@ -9,6 +9,7 @@
 import { quizListQuery } from '#shared/schemas/quiz'
 import { visibleQuizIds } from '~~/server/lib/quiz/access'
 import { staffSummaries, studentSummary } from '~~/server/lib/quiz/present'
+import { quizItemCounts } from '~~/server/lib/data/quiz-items'
 
 // The quizzes the caller may see: lecturers and admins every quiz; a tutor their own
 // and their cohorts'; a student the published quizzes assigned to their cohort.
@@ -34,7 +35,7 @@ export default defineEventHandler(async (event) => {
     const [sittings, counts] = ids.length
       ? await Promise.all([
           db.selectFrom('quiz_sittings').selectAll().where('student_id', '=', user.id).where('quiz_id', 'in', ids).execute(),
-          db.selectFrom('quiz_items').select(['quiz_id', eb => eb.fn.countAll<number>().as('n')]).where('quiz_id', 'in', ids).groupBy('quiz_id').execute(),
+          quizItemCounts(db, ids),
         ])
       : [[], []]
     return {

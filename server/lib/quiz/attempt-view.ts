@@ -13,14 +13,15 @@ import { attemptFeedback } from './feedback'
 import { readItemConfig } from './items'
 import { loadOverrides } from './results'
 import { feedbackReleased } from './timing'
+import { quizItem } from '~~/server/lib/data/quiz-items'
+import { countingAttempt } from '~~/server/lib/data/attempts'
 
 export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserData, quiz: QuizRow, attempt: AttemptRow): Promise<QuizAttemptView> {
   const [item, caseRow, student, latest] = await Promise.all([
-    db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow(),
+    quizItem(db, attempt.quiz_item_id!),
     db.selectFrom('cases').selectAll().where('id', '=', attempt.case_id).executeTakeFirstOrThrow(),
     db.selectFrom('users').select(['id', 'name', 'email']).where('id', '=', attempt.learner_id).executeTakeFirstOrThrow(),
-    db.selectFrom('attempts').select('id').where('quiz_id', '=', quiz.id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
-      .orderBy('id', 'desc').executeTakeFirstOrThrow(),
+    countingAttempt(db, { quizId: quiz.id, itemId: attempt.quiz_item_id, learnerId: attempt.learner_id }),
   ])
   const config = readItemConfig(item)
   // double Maddox rod attempts only ever belong to double Maddox rod items

@@ -8,7 +8,7 @@ import type { Database, QuizRow } from '~~/db/schema'
 import { assignableCohortIds } from './access'
 import { itemSummaryForStaff } from './items'
 import { staffSummaries } from './present'
-import { quizItems } from './sitting'
+import { quizItems } from '~~/server/lib/data/quiz-items'
 
 export async function quizLocked(db: Kysely<Database>, quizId: number): Promise<boolean> {
   const started = await db.selectFrom('quiz_sittings').select('id').where('quiz_id', '=', quizId).limit(1).executeTakeFirst()

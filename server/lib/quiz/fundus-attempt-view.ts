@@ -11,14 +11,15 @@ import { readItemConfig } from './items'
 import { fundusFeedbackOf, fundusItemPictures, referencePoints, studentItemImages } from './fundus-item'
 import { loadFundusOverrides } from './fundus-marks'
 import { feedbackReleased } from './timing'
+import { quizItem } from '~~/server/lib/data/quiz-items'
+import { countingFundusAttempt } from '~~/server/lib/data/attempts'
 
 export async function quizFundusAttemptView(db: Kysely<Database>, viewer: SessionUserData, quiz: QuizRow, attempt: FundusAttemptRow): Promise<QuizFundusAttemptView> {
   const [item, caseRow, student, latest] = await Promise.all([
-    db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow(),
+    quizItem(db, attempt.quiz_item_id!),
     attempt.case_id ? db.selectFrom('cases').selectAll().where('id', '=', attempt.case_id).executeTakeFirst() : Promise.resolve(undefined),
     db.selectFrom('users').select(['id', 'name', 'email']).where('id', '=', attempt.learner_id).executeTakeFirstOrThrow(),
-    db.selectFrom('fundus_attempts').select('id').where('quiz_id', '=', quiz.id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id).where('kind', '=', 'quiz')
-      .orderBy('id', 'desc').executeTakeFirstOrThrow(),
+    countingFundusAttempt(db, { quizId: quiz.id, itemId: attempt.quiz_item_id, learnerId: attempt.learner_id }),
   ])
   const config = readItemConfig(item) as FundusItemConfig
   const staff = viewer.role !== 'student'

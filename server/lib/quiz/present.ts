@@ -6,6 +6,7 @@ import type { QuizSettings, StaffQuizSummary, StudentQuizSummary } from '#shared
 import type { Database, QuizRow, QuizSittingRow } from '~~/db/schema'
 import { feedbackReleased, quizPhase, sittingStatus } from './timing'
 import { cohortIdsOfUser, managesQuiz } from './access'
+import { quizItemCounts } from '~~/server/lib/data/quiz-items'
 
 export function quizSettings(q: QuizRow, now: Date = new Date()): QuizSettings {
   return {
@@ -36,7 +37,7 @@ export async function staffSummaries(db: Kysely<Database>, user: SessionUserData
   const [cohorts, items, sittings, students, owners] = await Promise.all([
     db.selectFrom('quiz_cohorts').innerJoin('cohorts', 'cohorts.id', 'quiz_cohorts.cohort_id')
       .select(['quiz_cohorts.quiz_id', 'cohorts.id', 'cohorts.name']).where('quiz_cohorts.quiz_id', 'in', ids).orderBy('cohorts.name').execute(),
-    db.selectFrom('quiz_items').select(['quiz_id', eb => eb.fn.countAll<number>().as('n')]).where('quiz_id', 'in', ids).groupBy('quiz_id').execute(),
+    quizItemCounts(db, ids),
     db.selectFrom('quiz_sittings').select(['quiz_id', 'finished_at', 'deadline_at']).where('quiz_id', 'in', ids)
       .$if(!!inReach, q => q.where('student_id', 'in', eb => eb.selectFrom('cohort_members').select('user_id').where('cohort_id', 'in', inReach!)))
       .execute(),

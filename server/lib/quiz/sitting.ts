@@ -1,7 +1,6 @@
 // A student's sitting: starting it stores every item's case (derived from the
 // quiz seed, the item and the student), so what the student sees is fixed from
 // the first moment and can be replayed by the tutor.
-import { createError } from 'h3'
 import type { Kysely, Transaction } from 'kysely'
 import type { CaseRow, Database, QuizItemRow, QuizRow } from '~~/db/schema'
 import { insertCase } from '~~/server/lib/practice/cases'
@@ -33,16 +32,6 @@ export async function ensureQuizCase(db: Db, quiz: QuizRow, item: QuizItemRow, s
     // the template names the condition: hidden from the student until results are open
     : await insertCase(db, { ...common, templateId: built.templateId!, seed: built.seed, templateHidden: true })
   return row
-}
-
-export async function quizItems(db: Db, quizId: number): Promise<QuizItemRow[]> {
-  return db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quizId).orderBy('position').execute()
-}
-
-export async function quizItemOf(db: Db, quizId: number, itemId: number): Promise<QuizItemRow> {
-  const item = await db.selectFrom('quiz_items').selectAll().where('quiz_id', '=', quizId).where('id', '=', itemId).executeTakeFirst()
-  if (!item) throw createError({ statusCode: 404, statusMessage: 'Not Found', message: 'That quiz item was not found.', data: { code: 'not-found' } })
-  return item
 }
 
 export async function sittingOf(db: Db, quizId: number, studentId: number) {

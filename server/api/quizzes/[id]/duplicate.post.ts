@@ -4,7 +4,7 @@ import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { newQuizSeed } from '~~/server/lib/quiz/seeds'
-import { quizItems } from '~~/server/lib/quiz/sitting'
+import { quizItems } from '~~/server/lib/data/quiz-items'
 
 // A copy keeps the settings, items and (the caller's own) cohorts, unpublished,
 // with a fresh seed: new patients, so answers from the first sitting do not carry over.

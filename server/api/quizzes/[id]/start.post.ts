@@ -3,7 +3,8 @@
 import { idParam } from '#shared/schemas/common'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'
-import { ensureQuizCase, quizItems, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizItems } from '~~/server/lib/data/quiz-items'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
 import { quizPhase, sittingDeadline } from '~~/server/lib/quiz/timing'
 
 // Starting stores the sitting (its deadline fixed now) and every item's case in one

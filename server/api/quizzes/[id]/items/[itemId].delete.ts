@@ -4,7 +4,7 @@ import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
-import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'
+import { quizItemOf, quizItems } from '~~/server/lib/data/quiz-items'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

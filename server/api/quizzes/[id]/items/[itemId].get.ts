@@ -10,10 +10,11 @@ import type { StudentQuizItemPage } from '#shared/types/quiz'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { readItemConfig } from '~~/server/lib/quiz/items'
-import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/lib/quiz/sitting'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
 import { studentFundusItem } from '~~/server/lib/quiz/fundus-sitting'
 import { caseTurns, regenerateCase } from '~~/server/lib/practice/cases'
 import { toPresentation } from '~~/server/lib/engine/presentation'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // One item for the bench: the presentation (never the truth), the autosaved draft and
 // the patient's turns so far, so a reload or a restarted server picks up where it was.

@@ -5,7 +5,7 @@ import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/lib/quiz/items'
-import { quizItemOf, quizItems } from '~~/server/lib/quiz/sitting'
+import { quizItemOf, quizItems } from '~~/server/lib/data/quiz-items'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

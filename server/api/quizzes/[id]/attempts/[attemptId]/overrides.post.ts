@@ -8,6 +8,8 @@ import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/ove
 import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
 import { readItemConfig } from '~~/server/lib/quiz/items'
 import { effectiveMarks, loadOverrides } from '~~/server/lib/quiz/results'
+import { countingAttempt } from '~~/server/lib/data/attempts'
+import { quizItem } from '~~/server/lib/data/quiz-items'
 
 // Change one criterion's mark on the attempt that counts, with a reason; audit-logged
 // in the same transaction.
@@ -21,10 +23,9 @@ export default defineEventHandler(async (event) => {
   if (!attempt) notFound('That attempt')
   // a tutor changes only their own cohorts' students' marks
   await assertStudentInReach(db, user, id, attempt.learner_id)
-  const latest = await db.selectFrom('attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
-    .orderBy('id', 'desc').executeTakeFirstOrThrow()
+  const latest = await countingAttempt(db, { quizId: id, itemId: attempt.quiz_item_id, learnerId: attempt.learner_id })
   assertCountingAttempt(attempt.id, latest.id)
-  const item = await db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow()
+  const item = await quizItem(db, attempt.quiz_item_id!)
   const overrides = (await loadOverrides(db, id)).filter(o => o.attempt_id === attempt.id)
   const mark = effectiveMarks(attempt, readItemConfig(item), quiz.interpretation === 1, overrides).find(m => m.criterion === body.criterion)
   if (!mark) badRequest([{ path: 'criterion', message: `This attempt has no “${body.criterion}” mark to change.` }])

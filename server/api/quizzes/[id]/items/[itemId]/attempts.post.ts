@@ -12,7 +12,7 @@ import { submitFundusItem } from '~~/server/lib/quiz/fundus-sitting'
 import type { QuizAttemptReceipt } from '#shared/types/quiz'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { readItemConfig } from '~~/server/lib/quiz/items'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
 import { assertSittingOpen } from '~~/server/lib/quiz/timing'
 import { recordAttempt } from '~~/server/lib/practice/attempts'
 import { withCaseErrors } from '~~/server/lib/practice/http'
@@ -20,6 +20,7 @@ import { withKeyLock } from '~~/server/lib/quiz/lock'
 import { regenerateCase } from '~~/server/lib/practice/cases'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import type { CaseRow } from '~~/db/schema'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 /** Whether the student was shown cover-test findings to interpret (the bench offers the step only then). */
 const hasCoverTest = (row: CaseRow) => !!toPresentation(regenerateCase(row), row.mode).coverTest

@@ -7,8 +7,9 @@ import { fundusItemDraftBody, quizItemParams } from '#shared/schemas/quiz'
 import { readItemConfig } from '~~/server/lib/quiz/items'
 import { saveFundusDraft } from '~~/server/lib/quiz/fundus-sitting'
 import { quizForStudent } from '~~/server/lib/quiz/access'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
 import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Autosave, stored on the case row as the practice API stores it. Refused (409)
 // once the sitting has ended: what was saved before the deadline stays as it was.

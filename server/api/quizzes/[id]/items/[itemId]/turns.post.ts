@@ -5,10 +5,11 @@ import { turnRequestSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { readItemConfig } from '~~/server/lib/quiz/items'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
 import { assertSittingOpen } from '~~/server/lib/quiz/timing'
 import { recordTurn } from '~~/server/lib/practice/cases'
 import { withCaseErrors } from '~~/server/lib/practice/http'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Patient-turns: the patient turns the rods (stored as a numbered trial, exactly as
 // in practice, so the attempt can name the trial it read).

@@ -6,11 +6,12 @@ import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizStudentCaseParams } from '#shared/schemas/quiz'
 import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
 import { buildItemCase, readItemConfig } from '~~/server/lib/quiz/items'
-import { quizCaseRow, quizItemOf } from '~~/server/lib/quiz/sitting'
+import { quizCaseRow } from '~~/server/lib/quiz/sitting'
 import { regenerateCase } from '~~/server/lib/practice/cases'
 import { fundusDraftOf, fundusItemPictures, fundusPicturesOfCase, referencePoints } from '~~/server/lib/quiz/fundus-item'
 import { revealTruth } from '~~/server/lib/engine/attempt'
 import { toPresentation } from '~~/server/lib/engine/presentation'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Exactly what one student sees (or saw) on an item: the stored case if they have
 // opened it, else the case the quiz seed derives for them — the same patient.

@@ -5,9 +5,10 @@
 import { quizItemPictureParams } from '#shared/schemas/quiz'
 import { quizForStudent } from '~~/server/lib/quiz/access'
 import { readItemConfig } from '~~/server/lib/quiz/items'
-import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/lib/quiz/sitting'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
 import { fundusItemPictures } from '~~/server/lib/quiz/fundus-item'
 import { renderFundusPng } from '~~/server/lib/fundus/render'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'student')
