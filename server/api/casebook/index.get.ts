@@ -5,6 +5,7 @@
 // casesTotal }` (a tutor sees their own entries, a lecturer everyone's)
 import { listPaging } from '#shared/schemas/common'
 import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import type { CasebookData } from '#shared/types/casebook'
 import { z } from 'zod'
 import { caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/lib/casebook/casebook'
 import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
@@ -14,7 +15,7 @@ const query = z.object({ archived: z.enum(['0', '1'], { error: 'Archived must be
 
 // Paged: `page` (from 1) and `pageSize` (default 50, at most 100) apply to the
 // templates and to the exact cases alike, each in title order, with each list's total.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasebookData> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const { archived, page, pageSize } = queryAs(event, query)
   const db = await useDb()

@@ -16,10 +16,7 @@
 import { describe, expect, it } from 'vitest'
 import type { Distance, Gaze } from '#shared/engine/types'
 import { T, N, D, row, DR, EW, DV, AO, DM, EM, NP, grade, slipKeys, markOf, checkScore } from '../../support/marking-table'
-import type { Truth, Row, ScoreRule } from '../../support/marking-table'
-
-const N = { distance: 'near' as const }
-const row = (record: string, truth: Truth, slips: string[], score: ScoreRule, extra: Partial<Row> = {}): Row => ({ record, truth, slips, score, ...extra })
+import type { Row } from '../../support/marking-table'
 
 // ---------------------------------------------------------------------------
 // 1. Layouts: line breaks, bullets, labels, OD/OS, "=", prose (domain.md §5.1 complete record).

@@ -13,8 +13,6 @@ import type { Eye, Gaze } from '#shared/engine/types'
 import { T, N, row, DR, EW, DV, AO, DM, AM, EM, grade, slipKeys, markOf, checkScore } from '../../support/marking-table'
 import type { Truth, Row } from '../../support/marking-table'
 
-const N = { distance: 'near' as const }
-
 // ---------------------------------------------------------------------------
 // 1. Correct, complete records in many clinical styles → full marks, no slips.
 // ---------------------------------------------------------------------------

@@ -5,9 +5,10 @@ import { idParam } from '#shared/schemas/common'
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import { staffReplay } from '~~/server/lib/review/replay'
 import { reviewScopeFor } from '~~/server/lib/review/scope'
+import type { AttemptReplay } from '#shared/types/review'
 
 /** One attempt's bench state and result, for the read-only replay (tutors: their cohorts only). */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AttemptReplay> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

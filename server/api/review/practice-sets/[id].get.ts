@@ -8,9 +8,10 @@ import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
 import { setProgress } from '~~/server/lib/review/practice-sets'
 import { visibleSets } from '~~/server/lib/review/set-access'
+import type { PracticeSetDetail } from '#shared/types/review'
 
 /** One practice set and whether the focus slip became rarer after it was sent. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PracticeSetDetail> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()
