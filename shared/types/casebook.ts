@@ -1,6 +1,7 @@
 // The casebook as GET /api/casebook answers it (engine templates with their published
 // ranges, the tutor's narrowed templates and exact cases, default tolerance and weights).
 import type { CaseSpec } from '#shared/engine/caseSpec'
+import type { Presentation } from '#shared/engine/presentation'
 import type { NarrowedRanges } from '#shared/schemas/casebook'
 import type { QuizCriterion } from '#shared/schemas/quiz'
 
@@ -28,3 +29,6 @@ export interface CasebookData {
   templatesTotal: number
   casesTotal: number
 }
+
+/** POST /api/casebook/preview — a case as a student receives it, and for staff the finding it is marked against. */
+export interface CasePreview { title: string, seed: string, mode: string, presentation: Presentation, truth: { label: string, torsion: { RE: number, LE: number }, objectiveTorsion: { RE: number, LE: number }, levelAt: { RE: number, LE: number }, modelRecord: string, palsiedMuscles: string[], sources: string[] }, tolerance: number }

@@ -7,10 +7,11 @@ import { casePreviewBody } from '#shared/schemas/casebook'
 import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
 import { revealTruth } from '~~/server/lib/engine/attempt'
 import { toPresentation } from '~~/server/lib/engine/presentation'
+import type { CasePreview } from '#shared/types/casebook'
 
 // A preview shows the presentation exactly as a student receives it, and beside it
 // (for the tutor only) the truth the grader will use.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasePreview> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const body = await readBodyAs(event, casePreviewBody)
   const db = await useDb()
