@@ -6,8 +6,9 @@ import { idParam } from '#shared/schemas/common'
 import { quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'
+import type { StaffQuizDetail, StudentQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail | StudentQuizDetail> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

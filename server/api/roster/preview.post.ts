@@ -3,9 +3,10 @@
 // name, email, cohort, problems }], total, valid, invalid, canImport }`
 import { ROSTER_ROLES } from '#shared/auth/roles'
 import { readRoster } from '~~/server/lib/roster/upload'
+import type { RosterReport } from '#shared/types/roster'
 
 // Check a roster CSV without importing anything: a report line per row.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<RosterReport> => {
   const user = await requireRole(event, ...ROSTER_ROLES)
   return readRoster(event, user)
 })

@@ -4,9 +4,10 @@ import { quizForStudent } from '~~/server/lib/quiz/access'
 import { studentQuizDetail } from '~~/server/lib/quiz/student'
 import { sittingOf } from '~~/server/lib/quiz/sitting'
 import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import type { StudentQuizDetail } from '#shared/types/quiz'
 
 // Finishing ends the sitting early: nothing can be changed after it.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StudentQuizDetail> => {
   const user = await requireRole(event, 'student')
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

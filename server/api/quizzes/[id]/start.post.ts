@@ -6,10 +6,11 @@ import { studentQuizDetail } from '~~/server/lib/quiz/student'
 import { quizItems } from '~~/server/lib/data/quiz-items'
 import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
 import { quizPhase, sittingDeadline } from '~~/server/lib/quiz/timing'
+import type { StudentQuizDetail } from '#shared/types/quiz'
 
 // Starting stores the sitting (its deadline fixed now) and every item's case in one
 // transaction. Starting again is harmless: the first start stands.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StudentQuizDetail> => {
   const user = await requireRole(event, 'student')
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

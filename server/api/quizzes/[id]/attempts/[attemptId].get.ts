@@ -6,10 +6,11 @@
 import { quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
+import type { QuizAttemptView } from '#shared/types/quiz'
 
 // Staff open any attempt of a quiz they manage; a student only their own (anyone
 // else's is 404), and its marks only once feedback is open.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizAttemptView> => {
   const user = await requireSignedIn(event)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const db = await useDb()

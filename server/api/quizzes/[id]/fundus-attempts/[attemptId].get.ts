@@ -8,10 +8,11 @@
 import { quizAttemptParams } from '#shared/schemas/quiz'
 import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
 import { quizFundusAttemptView } from '~~/server/lib/quiz/fundus-attempt-view'
+import type { QuizFundusAttemptView } from '#shared/types/quiz'
 
 // A fundus item's attempt: staff open any attempt of a quiz they manage; a student
 // only their own (anyone else's is 404), and its marks only once feedback is open.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizFundusAttemptView> => {
   const user = await requireSignedIn(event)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const db = await useDb()

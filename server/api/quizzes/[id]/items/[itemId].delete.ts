@@ -5,8 +5,9 @@ import { quizItemParams } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { quizItemOf, quizItems } from '~~/server/lib/data/quiz-items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, itemId } = paramsAs(event, quizItemParams)
   const db = await useDb()

@@ -6,8 +6,9 @@ import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/lib/quiz/items'
 import { quizItemOf, quizItems } from '~~/server/lib/data/quiz-items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, itemId } = paramsAs(event, quizItemParams)
   const body = await readBodyAs(event, quizItemPatch)

@@ -6,8 +6,9 @@ import { quizItemBody } from '#shared/schemas/quiz'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { itemConfigFromBody } from '~~/server/lib/quiz/items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, quizItemBody)

@@ -10,10 +10,11 @@ import { readItemConfig } from '~~/server/lib/quiz/items'
 import { effectiveMarks, loadOverrides } from '~~/server/lib/quiz/results'
 import { countingAttempt } from '~~/server/lib/data/attempts'
 import { quizItem } from '~~/server/lib/data/quiz-items'
+import type { QuizAttemptView } from '#shared/types/quiz'
 
 // Change one criterion's mark on the attempt that counts, with a reason; audit-logged
 // in the same transaction.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizAttemptView> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const body = await readBodyAs(event, overrideBody)

@@ -13,10 +13,11 @@ import { applyOverrides } from '~~/server/lib/quiz/results'
 import type { FundusGradeResult } from '#shared/engine/fundus/result'
 import { countingFundusAttempt } from '~~/server/lib/data/attempts'
 import { quizItem } from '~~/server/lib/data/quiz-items'
+import type { QuizFundusAttemptView } from '#shared/types/quiz'
 
 // Change one criterion's mark on a fundus attempt that counts, with a reason;
 // audit-logged in the same transaction (as for double Maddox rod attempts).
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizFundusAttemptView> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const body = await readBodyAs(event, overrideBody)
