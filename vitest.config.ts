@@ -45,11 +45,11 @@ export default defineConfig({
         },
       },
       {
-        // benchmarks (npm run bench:*): never part of npm test
+        // performance runs (npm run perf:*): never part of npm test
         resolve: { alias },
         test: {
-          name: 'bench',
-          include: ['tests/bench/**/*.run.ts'],
+          name: 'perf',
+          include: ['tests/perf/**/*.run.ts'],
           environment: 'node',
           fileParallelism: false,
           testTimeout: 900_000,

@@ -7,7 +7,7 @@ import type { Ctx2d } from '~/composables/sim/drawFrame'
 
 declare global {
   interface Window {
-    /** Set by the benchmark (tests/bench) to collect redraw times, ms per frame. */
+    /** Set by the benchmark (tests/perf) to collect redraw times, ms per frame. */
     __cyclodialMeasure?: boolean
     __cyclodialFrames?: Record<string, number[]>
     /** Set when measuring: repaint a canvas n times in a row, returning ms per repaint. */

@@ -8,7 +8,7 @@ import SQLite from 'better-sqlite3'
 import pg from 'pg'
 import { Kysely, Migrator, PostgresDialect, SqliteDialect, sql } from 'kysely'
 import type { Database } from './schema'
-import { staticMigrationProvider } from './migrations'
+import { migrations, staticMigrationProvider } from './migrations'
 import { dialectOf, isPostgresUrl } from './dialect'
 
 /**
@@ -102,13 +102,42 @@ export async function withStartupLock<T>(db: Kysely<Database>, work: (db: Kysely
   })
 }
 
+/**
+ * Databases made before the list was sorted ran 0003 after 0004–0007 (the list then
+ * allowed unordered migrations), so their record is out of name order and the strict
+ * migrator would call it corrupted. When the record holds exactly the first N
+ * migrations of the list, only their order differs: restamp them in name order (same
+ * first time, a millisecond apart). A record with a gap or an unknown name is left
+ * alone, and the migrator refuses it.
+ */
+export async function settleEarlierRunOrder(db: Kysely<Database>): Promise<boolean> {
+  const anyDb = db as unknown as Kysely<any>
+  const tables = await db.introspection.getTables({ withInternalKyselyTables: true })
+  if (!tables.some(t => t.name === 'kysely_migration')) return false
+  const rows: { name: string, timestamp: string }[] = await anyDb.selectFrom('kysely_migration').select(['name', 'timestamp']).execute()
+  if (!rows.length) return false
+  const listed = Object.keys(migrations)
+  const byName = [...rows].sort((a, b) => a.name.localeCompare(b.name))
+  if (byName.some((r, i) => r.name !== listed[i])) return false
+  const byTime = [...rows].sort((a, b) => (a.timestamp === b.timestamp ? a.name.localeCompare(b.name) : new Date(a.timestamp).getTime() - new Date(b.timestamp).getTime()))
+  if (byTime.every((r, i) => r.name === byName[i]!.name)) return false
+  const first = Math.min(...rows.map(r => new Date(r.timestamp).getTime()))
+  await anyDb.transaction().execute(async (trx) => {
+    for (const [i, r] of byName.entries()) {
+      await trx.updateTable('kysely_migration').set({ timestamp: new Date(first + i).toISOString() }).where('name', '=', r.name).execute()
+    }
+  })
+  return true
+}
+
 export interface MigrationReport { name: string, status: 'Success' | 'Error' | 'NotExecuted' }
 
 /** Runs every pending migration; throws (after logging each result) on failure. */
 export async function migrateToLatest(db: Kysely<Database>, log: (line: string) => void = () => {}): Promise<MigrationReport[]> {
-  // Migration numbers are handed out to parallel branches, so one may land before a
-  // lower number: run whichever are missing rather than refuse.
-  const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+  // Migrations run in name order and only in that order: a new one takes the next
+  // number after the highest on main when it is merged (renumber a branch's file then).
+  await settleEarlierRunOrder(db)
+  const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
   const { error, results = [] } = await migrator.migrateToLatest()
   for (const r of results) log(`migration ${r.migrationName}: ${r.status}`)
   if (error) throw error instanceof Error ? error : new Error(String(error))

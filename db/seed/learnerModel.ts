@@ -7,9 +7,9 @@ import type { Rng } from '#shared/engine/random'
 import { normal, pick } from '#shared/engine/random'
 import type { Eye, Gaze, PerEye } from '#shared/engine/types'
 import { EYES } from '#shared/engine/types'
-import { levelReadings } from '../../server/utils/engine/patient'
-import { CASE_TEMPLATES } from '../../server/utils/engine/templates'
-import type { Case } from '../../server/utils/engine/types'
+import { levelReadings } from '~~/server/lib/engine/patient'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
+import type { Case } from '~~/server/lib/engine/types'
 
 export const PROFILES = ['clean', 'mostly-clean', 'image', 'swap-LE', 'swap-RE', 'dial', 'unnamed', 'measures-badly'] as const
 export type Profile = (typeof PROFILES)[number]

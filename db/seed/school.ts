@@ -1,7 +1,8 @@
 // The demo scenario: an invented school with invented people. Nothing here is
 // a real person or institution. Demo accounts share one password, for local use.
 import type { Kysely } from 'kysely'
-import type { Database, Role } from '../schema'
+import type { Role } from '../../shared/auth/roles'
+import type { Database } from '../schema'
 
 export const DEMO_PASSWORD = 'cyclodial-demo'
 export const DEMO_SCHOOL = 'Northmere School of Orthoptics'

@@ -2,7 +2,7 @@
 // degrees, positive = excyclo). Tutors use it to mark written practical exams.
 import { recordCheckBodySchema } from '#shared/schemas/practice'
 import type { RecordCheckResult } from '#shared/types/practice'
-import { gradeRecord } from '~~/server/utils/engine/grader'
+import { gradeRecord } from '~~/server/lib/engine/grader'
 
 export default defineEventHandler(async (event): Promise<RecordCheckResult> => {
   await requireRole(event, 'tutor', 'lecturer', 'admin')

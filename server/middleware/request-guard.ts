@@ -4,7 +4,6 @@
 // 413 as soon as a JSON body passes 1 MB. The rules are in server/utils/request-guard.ts.
 import type { H3Event } from 'h3'
 import { LtiRefusal, refusalPage } from '~~/server/lib/lti/html'
-import { LTI_FORM_MAX_BYTES, STATE_CHANGING, crossSiteProblem, declaresBody, isFormContentType, isJsonContentType, isUploadRoute, ltiFormRoute, readLimitedBody } from '~~/server/utils/request-guard'
 
 export default defineEventHandler(async (event: H3Event) => {
   const method = event.method.toUpperCase()

@@ -1,4 +1,4 @@
-import { fundusPhotoStorage } from '~~/server/utils/fundus/photoStore'
+import { fundusPhotoStorage } from '~~/server/lib/fundus/photo-store'
 
 // Start-up checks: refuse to serve in production without a session password (or with
 // one that is long but trivially weak) or without a site URL, then open, migrate and

@@ -21,8 +21,22 @@ export function homeFor(role: Role): string {
   return HOMES[role]
 }
 
+// ---- role groups: every route and page names its group from here ----
+
 /** Staff who teach: tutors and lecturers (admins manage accounts, not teaching). */
-export const TEACHING_ROLES: readonly Role[] = ['tutor', 'lecturer']
+export const TEACHING_ROLES = ['tutor', 'lecturer'] as const satisfies readonly Role[]
+/** Every staff role: tutors, lecturers and administrators. */
+export const STAFF_ROLES = ['tutor', 'lecturer', 'admin'] as const satisfies readonly Role[]
+/** Roles that build and mark quizzes. */
+export const QUIZ_STAFF = STAFF_ROLES
+/** Roles that import a roster (a cohort's students from a CSV file). */
+export const ROSTER_ROLES = STAFF_ROLES
+/** Roles that read the slip patterns (review). */
+export const REVIEW_ROLES = TEACHING_ROLES
+/** Roles that keep the casebook (narrowed templates and exact cases). */
+export const CASEBOOK_ROLES = TEACHING_ROLES
+/** Everyone may practise. */
+export const PRACTICE_ROLES = ROLES
 
 export function isRole(value: unknown): value is Role {
   return typeof value === 'string' && (ROLES as readonly string[]).includes(value)

@@ -3,8 +3,7 @@
 // carries the condition, the case template, a signed torsion, a direction label
 // or the expected record (architecture.md, "The boundary that matters").
 
-import type { Distance, Eye, Gaze, Mode, PerDistance, PerEye, StreakColour, StreakPattern } from './types'
-import type { PatientWords } from './words'
+import type { Distance, Eye, Gaze, Mode, PatientWords, PerDistance, PerEye, StreakColour, StreakPattern } from './types'
 
 export const PRESENTATION_VERSION = 1
 

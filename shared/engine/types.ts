@@ -79,3 +79,24 @@ export const mapEyes = <T, U>(v: PerEye<T>, f: (value: T, eye: Eye) => U): PerEy
   RE: f(v.RE, 'RE'),
   LE: f(v.LE, 'LE'),
 })
+
+// ---- the patient's words (words.ts works them out) ----
+
+export type SlopeSize = 'slight' | 'clear' | 'steep'
+
+export type Observation
+  = | { kind: 'lights-on' }
+    | { kind: 'none-seen' }
+    | { kind: 'one-line', seen: Eye }
+    | { kind: 'out-of-view', eye: Eye }
+    | { kind: 'overlap', crossing: boolean }
+    | { kind: 'level', eye: Eye }
+    | { kind: 'slopes', eye: Eye, lowEnd: 'left' | 'right', towards: 'nose' | 'ear', size: SlopeSize }
+    | { kind: 'parallel', level: boolean }
+    | { kind: 'not-parallel' }
+    | { kind: 'unsure', eye?: Eye }
+
+export interface PatientWords {
+  text: string
+  observations: Observation[]
+}

@@ -6,28 +6,12 @@ import { wrapAxisDifference } from './dial'
 import { isLevel } from './optics'
 import { makeRng, pick } from './random'
 import type { Rng } from './random'
-import type { Eye } from './types'
+import type { Eye, Observation, PatientWords, SlopeSize } from './types'
 import { EYES, otherEye } from './types'
 import type { PatientView, SeenStreak } from './view'
 
-export type SlopeSize = 'slight' | 'clear' | 'steep'
-
-export type Observation
-  = | { kind: 'lights-on' }
-    | { kind: 'none-seen' }
-    | { kind: 'one-line', seen: Eye }
-    | { kind: 'out-of-view', eye: Eye }
-    | { kind: 'overlap', crossing: boolean }
-    | { kind: 'level', eye: Eye }
-    | { kind: 'slopes', eye: Eye, lowEnd: 'left' | 'right', towards: 'nose' | 'ear', size: SlopeSize }
-    | { kind: 'parallel', level: boolean }
-    | { kind: 'not-parallel' }
-    | { kind: 'unsure', eye?: Eye }
-
-export interface PatientWords {
-  text: string
-  observations: Observation[]
-}
+// The words' types live in types.ts (presentation.ts needs them without words.ts).
+export type { Observation, PatientWords, SlopeSize } from './types'
 
 /** Tilt sizes a patient would put into words; Cyclodial's own bands. */
 export function slopeSize(angle: number): SlopeSize {

@@ -1,6 +1,6 @@
 // Per-learner slip patterns (issue 6, item 2): habits that show over a learner's
 // attempts rather than on one. The counts come from SQL on the server
-// (server/utils/review/learners.ts) or from a plain history here; the same
+// (server/lib/review/learners.ts) or from a plain history here; the same
 // rules then decide which patterns a learner shows. Thresholds are Cyclodial's
 // own teaching choices, not published figures.
 import type { RuleSwapAttempt, SlipCode } from '#shared/engine/slips'

@@ -2,10 +2,6 @@ import { z } from 'zod'
 import { emailField, nameField, roleField } from './auth'
 import { oneLineName } from './text'
 
-export const idParam = z.object({
-  id: z.coerce.number({ error: 'The id must be a number.' }).int().positive({ error: 'The id must be a positive whole number.' }),
-})
-
 export const userListQuery = z.object({
   q: z.string().trim().max(100).optional(),
   role: roleField.optional(),
@@ -32,9 +28,4 @@ export const inviteBody = z.object({
 
 export const cohortBody = z.object({
   name: oneLineName('Cohort name', 2, 120),
-})
-
-export const pageQuery = z.object({
-  page: z.coerce.number().int().min(1).default(1),
-  pageSize: z.coerce.number().int().min(5).max(100).default(25),
 })

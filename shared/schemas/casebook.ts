@@ -3,7 +3,6 @@
 import { z } from 'zod'
 import { caseSpecSchema } from '../engine/caseSpec'
 import { modeSchema, seedSchema, templateIdSchema, toleranceSchema } from '../engine/schemas'
-import { idParam } from './admin'
 
 const titleField = z.string({ error: 'Give a title.' })
   .trim()
@@ -73,5 +72,3 @@ export const casePreviewBody = z.object({
   mode: modeSchema.default('patient-turns'),
 })
 export type CasePreviewBody = z.input<typeof casePreviewBody>
-
-export { idParam }

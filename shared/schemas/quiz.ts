@@ -4,6 +4,7 @@ import { z } from 'zod'
 import { modeSchema, toleranceSchema } from '../engine/schemas'
 import { caseSourceSchema } from './casebook'
 import { fundusDraftEyes } from './fundus'
+import { listPaging } from './common'
 
 /** The criteria a quiz can weigh: the grader's, the three-step interpretation, and a fundus item's two. */
 export const QUIZ_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason', 'interpretation', 'fundusAngle', 'fundusFinding'] as const
@@ -158,14 +159,6 @@ export const quizPatchBody = z.object({
 }).refine(b => Object.keys(b).length > 0, { error: 'Nothing to change.' })
   .refine(closesAfterOpens, { error: 'The quiz must close after it opens.', path: ['closesAt'] })
 export type QuizPatchBody = z.input<typeof quizPatchBody>
-
-/** List paging: `page` from 1, `pageSize` 1–LIST_PAGE_SIZE_MAX (default LIST_PAGE_SIZE). */
-export const LIST_PAGE_SIZE = 50
-export const LIST_PAGE_SIZE_MAX = 100
-export const listPaging = {
-  page: z.coerce.number({ error: 'Page must be a number.' }).int({ error: 'Page must be a whole number.' }).min(1, { error: 'Page starts at 1.' }).max(100_000, { error: 'Page is too large.' }).default(1),
-  pageSize: z.coerce.number({ error: 'Page size must be a number.' }).int({ error: 'Page size must be a whole number.' }).min(1, { error: 'Page size is at least 1.' }).max(LIST_PAGE_SIZE_MAX, { error: `At most ${LIST_PAGE_SIZE_MAX} per page.` }).default(LIST_PAGE_SIZE),
-}
 
 export const quizListQuery = z.object({
   archived: z.enum(['0', '1'], { error: 'Archived must be 0 or 1.' }).default('0'),

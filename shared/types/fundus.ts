@@ -61,3 +61,6 @@ export interface PhotoFundusAttemptReply {
   result: FundusGradeResult
   notes: string | null
 }
+
+/** GET /api/fundus/photos/:id — the photograph and the caller's attempts on it. */
+export interface FundusPhotoReply { photo: FundusPhotoView, attempts: FundusAttemptSummary[], normalRanges: PerEye<NormalRange> }

@@ -3,6 +3,7 @@ import type { SlipCode } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import type { PatternCode } from '#shared/review/patterns'
 import type { AmountBand, ReviewFilters } from '#shared/schemas/review'
+import type { AttemptResult, BenchDraft, PatientTurnsResult, Presentation } from './practice'
 
 export interface ReviewTotals {
   attempts: number
@@ -79,3 +80,41 @@ export interface ReviewAttemptRow {
   slips: { code: SlipCode, eye?: Eye }[]
 }
 export interface ReviewAttemptsResponse { items: ReviewAttemptRow[], total: number, page: number, pageSize: number }
+
+/** GET /api/review/attempts/:id — one attempt replayed for staff. */
+export interface StaffAttemptReplay {
+  attempt: BenchDraft & { id: number, trial: number | null, submittedAt: string }
+  result: AttemptResult
+  case: { id: number, title: string, mode: 'learner-turns' | 'patient-turns', condition: string, difficulty: string, readScale: boolean, presentation: Presentation | null }
+  turns: PatientTurnsResult[]
+  learner: { id: number, name: string }
+  cohort: { id: number, name: string } | null
+  kind: 'practice' | 'quiz'
+  quizId: number | null
+}
+
+/** A slip rate: attempts, those with the slip, and the rate per 100. */
+export interface SlipRate { attempts: number, slipped: number, rate: number | null }
+/** GET /api/review/practice-sets/:id — did the targeted slip become rarer after the set was sent? */
+export interface PracticeSetDetail {
+  id: number
+  title: string
+  focus: string
+  focusTitle: string
+  eye: string | null
+  scope: string
+  size: number
+  mode: string
+  note: string | null
+  createdAt: string
+  sender: string | null
+  cohort: string | null
+  slips: { code: string, title: string }[]
+  conditions: { condition: string, cases: number }[]
+  before: SlipRate
+  after: SlipRate
+  learners: { learner: { id: number, name: string }, sentAt: string, casesDone: number, before: SlipRate, after: SlipRate }[]
+}
+
+/** One row of GET /api/review/practice-sets. */
+export interface PracticeSetRow { id: number, title: string, focusTitle: string, eye: string | null, scope: string, size: number, createdAt: string, sender: string | null, cohort: string | null, learners: number }

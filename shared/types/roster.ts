@@ -1,4 +1,6 @@
 // What the roster upload answers: one report line per data row of the CSV.
+import type { Role } from '#shared/auth/roles'
+
 export interface RosterRow {
   /** Line of the file (the header is line 1). */
   line: number
@@ -23,3 +25,6 @@ export interface RosterImportResult {
   mailed: number
   message: string
 }
+
+/** GET /api/invitations/:token — what the invitation page shows before it is accepted. */
+export interface InvitationInfo { email: string, name: string | null, role: Role, roleLabel: string, cohortName: string | null, expiresAt: string }

@@ -4,7 +4,7 @@
 // whether the learner chose the template or Cyclodial did.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { MODES } from '#shared/engine/types'
-import { generateCase } from '~~/server/utils/engine/generator'
+import { generateCase } from '~~/server/lib/engine/generator'
 import type { Client } from '../support/client'
 import { signedIn } from '../support/client'
 import { readDb } from '../support/db'

@@ -4,8 +4,8 @@
 // seeds, with the template chosen (named) and with "any" (hidden).
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { MODES } from '#shared/engine/types'
-import { generateCase } from '~~/server/utils/engine/generator'
-import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
+import { generateCase } from '~~/server/lib/engine/generator'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import type { Client } from '../support/client'
 import { DEMO, signedIn } from '../support/client'
 import { readDb } from '../support/db'

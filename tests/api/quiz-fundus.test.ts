@@ -6,7 +6,7 @@
 // nothing graded reaches a student before release.
 import Papa from 'papaparse'
 import { describe, expect, inject, it } from 'vitest'
-import { generateCase } from '~~/server/utils/engine/generator'
+import { generateCase } from '~~/server/lib/engine/generator'
 import type { Client } from '../support/client'
 import { DEMO, signedIn, waitForMail } from '../support/client'
 import { SYNTHETIC_PHOTO, syntheticPng } from '../support/fundus'

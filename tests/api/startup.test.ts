@@ -1,6 +1,6 @@
 // Start-up behaviour of the built server, each case on its own server process.
 import { SMTPServer } from 'smtp-server'
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import { Client, DEMO } from '../support/client'
 import { freePort, startServer, startUpExit } from '../support/server'
 import { readDb } from '../support/db'
@@ -68,12 +68,12 @@ describe('start-up', () => {
         },
       })
       await new Promise<void>(r => smtp!.listen(smtpPort, '127.0.0.1', () => r()))
-      const deadline = Date.now() + 20_000
-      while (!received.length && Date.now() < deadline) await new Promise(r => setTimeout(r, 200))
-      expect(received).toHaveLength(1)
+      // Poll (no fixed sleeps): the message arrives, then the job is marked sent.
+      await vi.waitFor(() => expect(received).toHaveLength(1), { timeout: 20_000, interval: 100 })
       expect(received[0]).toMatch(/retry\.me@cyclodial\.test/)
-      await new Promise(r => setTimeout(r, 300))
-      expect(db.get('select status from mail_jobs where to_address = ?', 'retry.me@cyclodial.test')).toEqual({ status: 'sent' })
+      await vi.waitFor(() => {
+        expect(db.get('select status from mail_jobs where to_address = ?', 'retry.me@cyclodial.test')).toEqual({ status: 'sent' })
+      }, { timeout: 5_000, interval: 50 })
       db.close()
     }
     finally {

@@ -2,8 +2,8 @@
 // generated case (written here from the case's numbers, not by the engine's model
 // record), and the submission that goes with it.
 import type { Gaze } from '#shared/engine/types'
-import type { Case } from '~~/server/utils/engine/types'
-import { generateCase } from '~~/server/utils/engine/generator'
+import type { Case } from '~~/server/lib/engine/types'
+import { generateCase } from '~~/server/lib/engine/generator'
 
 const GAZE_WORDS: Partial<Record<Gaze, string>> = { primary: 'primary position', down: 'downgaze', up: 'upgaze' }
 

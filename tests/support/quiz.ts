@@ -2,8 +2,8 @@
 // the API, and the secrets of the case a student was given (from the engine, in
 // the test process, never from a student-facing response).
 import { expect } from 'vitest'
-import type { Case } from '~~/server/utils/engine/types'
-import { caseFromSpec, generateCase } from '~~/server/utils/engine/generator'
+import type { Case } from '~~/server/lib/engine/types'
+import { caseFromSpec, generateCase } from '~~/server/lib/engine/generator'
 import type { Client } from './client'
 
 export async function cohortIds(admin: Client): Promise<Record<string, number>> {

@@ -17,10 +17,10 @@
 //   readings, prism powers, ids, trial numbers).
 import { expect } from 'vitest'
 import { GAZES, MUSCLES } from '#shared/engine/types'
-import { revealTruth } from '~~/server/utils/engine/attempt'
-import { getCaseTemplate } from '~~/server/utils/engine/templates'
-import type { Case } from '~~/server/utils/engine/types'
-import { baseTemplateId, baseTemplateTitle } from '~~/server/utils/practice-templates'
+import { revealTruth } from '~~/server/lib/engine/attempt'
+import { getCaseTemplate } from '~~/server/lib/engine/templates'
+import type { Case } from '~~/server/lib/engine/types'
+import { baseTemplateId, baseTemplateTitle } from '~~/server/lib/practice/templates'
 
 export interface CaseSecrets {
   /** For messages: which case these are. */

@@ -6,8 +6,8 @@ import type { Kysely } from 'kysely'
 import { afterEach, beforeEach, describe, expect, it } from 'vitest'
 import { migrateToLatest, openDatabase } from '~~/db/open'
 import type { Database } from '~~/db/schema'
-import { amountError, recordAttempt } from '~~/server/utils/attempts'
-import { CaseInputError, caseTurns, insertCase, recordTurn, regenerateCase } from '~~/server/utils/cases'
+import { amountError, recordAttempt } from '~~/server/lib/practice/attempts'
+import { CaseInputError, caseTurns, insertCase, recordTurn, regenerateCase } from '~~/server/lib/practice/cases'
 
 let db: Kysely<Database>
 let learnerId: number

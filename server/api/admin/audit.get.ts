@@ -1,4 +1,8 @@
-import { pageQuery } from '#shared/schemas/admin'
+// GET /api/admin/audit (admin): the audit log, newest first: `{ items: [{ id, action,
+// target, detail, actorName, createdAt, words: { action, target, changes: [line] } }],
+// total, page, pageSize }` — `words` is the row in plain words for the page; a quiz
+// change keeps the values before under `detail.previous`
+import { pageQuery } from '#shared/schemas/common'
 import { auditActionWords, auditChangeWords, auditTargetWords } from '#shared/audit/words'
 
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,5 @@
-import { pageQuery } from '#shared/schemas/admin'
+// GET /api/admin/invitations (admin): the invitations sent, paged.
+import { pageQuery } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')

@@ -1,4 +1,7 @@
+// POST /api/admin/invitations (admin): invite one person `{ email, role, cohortId?, name? }`
+// (the name, when given, is offered on the acceptance form).
 import { inviteBody } from '#shared/schemas/admin'
+import { createInvitation } from '~~/server/lib/roster/invitations'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

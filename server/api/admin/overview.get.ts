@@ -1,3 +1,4 @@
+// GET /api/admin/overview (admin): counts for the admin home
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   const db = await useDb()

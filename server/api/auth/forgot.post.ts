@@ -1,3 +1,6 @@
+// POST /api/auth/forgot (anyone): `{ email }` → the same answer, at once, whether or not
+// the account exists; the reset link is e-mailed afterwards, at most 3 an hour per
+// account and 10 an hour per asking address
 import { lockForTransaction } from '~~/db/dialect'
 import { forgotBody } from '#shared/schemas/auth'
 

@@ -1,3 +1,8 @@
+// POST /api/auth/login (anyone): `{ email, password }` → `{ user, home }`; opens a
+// session and sets the sealed session cookie; `429` with `Retry-After` after 5 failures
+// for that e-mail from that address (each attempt is counted before the password is
+// checked); many failures from one address across e-mails slow it down (up to 2 s per
+// try) but never block it
 import { homeFor } from '#shared/auth/roles'
 import { loginBody } from '#shared/schemas/auth'
 

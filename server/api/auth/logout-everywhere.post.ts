@@ -1,3 +1,6 @@
+// POST /api/auth/logout-everywhere (signed in): `{ everywhere: true }` → `{ ended }`:
+// ends every session of the signed-in person, this one included (*Sign out everywhere*
+// in the header)
 import { logoutEverywhereBody } from '#shared/schemas/auth'
 
 // Sign out everywhere: ends every session of the signed-in person, this one

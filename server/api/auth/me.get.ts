@@ -1,3 +1,4 @@
+// GET /api/auth/me (signed in): `{ user, home }`
 import { homeFor } from '#shared/auth/roles'
 
 export default defineEventHandler(async (event) => {

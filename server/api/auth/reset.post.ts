@@ -1,3 +1,6 @@
+// POST /api/auth/reset (anyone): `{ token, password }`; `410` when used or expired (of
+// simultaneous uses exactly one succeeds); ends every session of that person; `400`
+// naming `password` and saying why when the password is refused (see *Passwords*)
 import { resetBody } from '#shared/schemas/auth'
 
 function gone(state: string) {

@@ -1,14 +1,21 @@
+// GET /api/casebook (tutor, lecturer): `?archived=0\|1&page&pageSize` (page from 1;
+// `pageSize` 1–100, default 50, the same page of templates and of exact cases, each in
+// title order) → `{ engine: [case templates with published ranges and sources],
+// templates, cases, defaults: { tolerance, weights }, page, pageSize, templatesTotal,
+// casesTotal }` (a tutor sees their own entries, a lecturer everyone's)
+import { listPaging } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import type { CasebookData } from '#shared/types/casebook'
 import { z } from 'zod'
-import { listPaging } from '#shared/schemas/quiz'
-import { CASEBOOK_ROLES, caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/utils/quiz/casebook'
-import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
-import { DEFAULT_GRADE_TOLERANCE } from '~~/server/utils/engine/grader'
+import { caseOut, engineTemplateList, seesEveryCasebook, templateOut } from '~~/server/lib/casebook/casebook'
+import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
+import { DEFAULT_GRADE_TOLERANCE } from '~~/server/lib/engine/grader'
 
 const query = z.object({ archived: z.enum(['0', '1'], { error: 'Archived must be 0 or 1.' }).default('0'), ...listPaging })
 
 // Paged: `page` (from 1) and `pageSize` (default 50, at most 100) apply to the
 // templates and to the exact cases alike, each in title order, with each list's total.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasebookData> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const { archived, page, pageSize } = queryAs(event, query)
   const db = await useDb()

@@ -1,7 +1,11 @@
+// GET /api/invitations/:token (anyone): what the invitation offers (e-mail, role,
+// cohort, the name given by whoever invited); `410` when used or expired
 import { ROLE_LABELS } from '#shared/auth/roles'
+import { invitationGone } from '~~/server/lib/roster/invitations'
+import type { InvitationInfo } from '#shared/types/roster'
 
 // Public: what an invitation link offers, so the page can show it before sign-up.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationInfo> => {
   const token = getRouterParam(event, 'token') ?? ''
   const db = await useDb()
   const invitation = await db.selectFrom('invitations')

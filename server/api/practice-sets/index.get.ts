@@ -1,3 +1,6 @@
+// GET /api/practice-sets (student (own)): practice sets sent to me: `{ items: [{ id,
+// title, note, mode, sentAt, sender, cases: [{ id, number, attempted }], done }] }` —
+// case ids only
 /** The practice sets a learner's tutors sent them, with their cases (ids only: nothing that names the answer). */
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'student')

@@ -1,8 +1,11 @@
 // One of my practice cases: the presentation, the autosaved bench, the patient's
 // turns so far and every attempt with its truth (the truth is due once submitted).
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import type { Distance, Gaze } from '#shared/engine/types'
 import { caseIdParams } from '#shared/schemas/practice'
 import type { PracticeCaseDetail } from '#shared/types/practice'
+import { caseTurns, findOwnedCase, practiceCaseView, regenerateCase } from '~~/server/lib/practice/cases'
+import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeCaseDetail> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,7 +1,9 @@
 // My practice attempts, newest first.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { practiceHistoryQuery } from '#shared/schemas/practice'
 import type { PracticeHistory } from '#shared/types/practice'
-import { getCaseTemplate } from '~~/server/utils/engine/templates'
+import { getCaseTemplate } from '~~/server/lib/engine/templates'
+import { baseTemplateId } from '~~/server/lib/practice/templates'
 
 export default defineEventHandler(async (event): Promise<PracticeHistory> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,8 +1,13 @@
 // Start a practice case: a chosen template, "any" (the server chooses and keeps it
 // hidden until an attempt is in), or "another like this" (like: caseId).
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { randomInt } from 'node:crypto'
 import { practiceStartSchema } from '#shared/schemas/practice'
 import type { PracticeCase } from '#shared/types/practice'
+import { withCaseErrors } from '~~/server/lib/practice/http'
+import { findOwnedCase, insertCase, newCaseSeed, practiceCaseView } from '~~/server/lib/practice/cases'
+import { baseTemplateId, practiceTemplateList, resolveTemplateId } from '~~/server/lib/practice/templates'
+import { hiddenCaseSeed } from '~~/server/lib/practice/hidden-case'
 
 export default defineEventHandler(async (event): Promise<PracticeCase> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,5 +1,6 @@
-import { assignableCohortIds } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+// GET /api/quizzes/cohorts (tutor, lecturer, admin): the cohorts the caller may assign
+import { QUIZ_STAFF } from '#shared/auth/roles'
+import { assignableCohortIds } from '~~/server/lib/quiz/access'
 
 // The cohorts the caller may assign a quiz (or a roster) to: a tutor's own; lecturers and admins all.
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,15 @@
+// GET /api/quizzes (signed in): the quizzes the caller may see — lecturers and admins
+// all, a tutor their own and their cohorts', a student the published ones of their
+// cohort; `?archived=1` for staff; paged, newest opening first: `?page` (from 1)
+// `&pageSize` (1–100, default 50). Staff: `{ items: [{ id, title, phase, opensAt,
+// closesAt, cohorts, itemCount, students, started, … }], total, page, pageSize }`;
+// students: `{ items: [{ id, title, phase, opensAt, closesAt, timeLimitMinutes,
+// itemCount, feedbackOpen, sitting: { status, startedAt, deadline } }], total, page,
+// pageSize }`
 import { quizListQuery } from '#shared/schemas/quiz'
-import { visibleQuizIds } from '~~/server/utils/quiz/access'
-import { staffSummaries, studentSummary } from '~~/server/utils/quiz/present'
+import { visibleQuizIds } from '~~/server/lib/quiz/access'
+import { staffSummaries, studentSummary } from '~~/server/lib/quiz/present'
+import { quizItemCounts } from '~~/server/lib/data/quiz-items'
 
 // The quizzes the caller may see: lecturers and admins every quiz; a tutor their own
 // and their cohorts'; a student the published quizzes assigned to their cohort.
@@ -26,7 +35,7 @@ export default defineEventHandler(async (event) => {
     const [sittings, counts] = ids.length
       ? await Promise.all([
           db.selectFrom('quiz_sittings').selectAll().where('student_id', '=', user.id).where('quiz_id', 'in', ids).execute(),
-          db.selectFrom('quiz_items').select(['quiz_id', eb => eb.fn.countAll<number>().as('n')]).where('quiz_id', 'in', ids).groupBy('quiz_id').execute(),
+          quizItemCounts(db, ids),
         ])
       : [[], []]
     return {

@@ -1,8 +1,12 @@
+// POST /api/quizzes (tutor, lecturer, admin): `{ title, instructions?, opensAt?,
+// closesAt?, timeLimitMinutes?, attemptsAllowed?, interpretation?, holdFeedback?,
+// cohortIds? }` (ISO 8601 times; a tutor assigns only cohorts they teach) → `201` the
+// quiz
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizCreateBody } from '#shared/schemas/quiz'
-import { assignableCohortIds } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { newQuizSeed } from '~~/server/utils/quiz/seeds'
-import { staffQuizDetail } from '~~/server/utils/quiz/detail'
+import { assignableCohortIds } from '~~/server/lib/quiz/access'
+import { newQuizSeed } from '~~/server/lib/quiz/seeds'
+import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,13 +1,16 @@
+// GET /api/review/export.csv (tutor, lecturer): `table`
+// (`slips`\|`directions`\|`amounts`\|`trend`\|`learners`\|`attempts`) + the same filters
+// → `text/csv` (cells that a spreadsheet would run as a formula get a leading `'`)
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { EXPORT_TABLES, reviewAttemptsQuery, reviewFilterQuery, reviewLearnersQuery } from '#shared/schemas/review'
 import { AMOUNT_BAND_EDGES } from '#shared/review/bands'
-import { amountBands, directionTable, reviewTotals, slipCounts, weeklyTrend } from '~~/server/utils/review/aggregates'
-import { toCsv } from '~~/server/utils/review/csv'
-import type { Cell } from '~~/server/utils/review/csv'
-import { drillAttempts } from '~~/server/utils/review/drill'
-import { needsHelp } from '~~/server/utils/review/learners'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { learnerInScope, reviewScopeFor } from '~~/server/utils/review/scope'
+import { amountBands, directionTable, reviewTotals, slipCounts, weeklyTrend } from '~~/server/lib/review/aggregates'
+import { toCsv } from '~~/server/lib/review/csv'
+import type { Cell } from '~~/server/lib/review/csv'
+import { drillAttempts } from '~~/server/lib/review/drill'
+import { needsHelp } from '~~/server/lib/review/learners'
+import { learnerInScope, reviewScopeFor } from '~~/server/lib/review/scope'
 
 const tableQuery = z.object({ table: z.enum(EXPORT_TABLES, { error: `Table must be one of ${EXPORT_TABLES.join(', ')}.` }) })
 

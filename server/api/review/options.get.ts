@@ -1,7 +1,9 @@
-import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
+// GET /api/review/options (tutor, lecturer): what the filters offer the caller: `{
+// cohorts, templates, conditions, quizzes, role }`
+import { REVIEW_ROLES } from '#shared/auth/roles'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { CONDITIONS } from '#shared/engine/caseSpec'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleCohorts } from '~~/server/utils/review/scope'
+import { visibleCohorts } from '~~/server/lib/review/scope'
 
 /** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */
 export default defineEventHandler(async (event) => {

@@ -1,6 +1,11 @@
+// POST /api/roster/import (tutor, lecturer, admin): the same upload; every row valid →
+// `201 { imported, mailed, message }` (invitations created in one transaction, then
+// e-mailed); any problem → `400` with the report and nothing imported
+import { ROSTER_ROLES } from '#shared/auth/roles'
 import type { RosterImportResult } from '#shared/types/roster'
-import { readRoster } from '~~/server/utils/roster-upload'
-import { ROSTER_ROLES } from '~~/server/utils/roster'
+import { readRoster } from '~~/server/lib/roster/upload'
+import type { InviteInput } from '~~/server/lib/roster/invitations'
+import { insertInvitation, mailInvitation } from '~~/server/lib/roster/invitations'
 
 // All-or-nothing: any row with a problem refuses the whole file (with the report);
 // otherwise every invitation is created in one transaction, then each is e-mailed.

@@ -4,7 +4,7 @@
 // (server/utils/mail.ts), and the log is visible to tutors and administrators.
 import type { Kysely } from 'kysely'
 import type { Database, QuizRow } from '~~/db/schema'
-import { computeResults } from '~~/server/utils/quiz/results'
+import { computeResults } from '~~/server/lib/quiz/results'
 import type { GradeLogEntry } from '#shared/types/lti'
 import { postScore } from './ags'
 

@@ -4,7 +4,7 @@
 // different meanings are equally close: the parser still declines to guess.
 
 import damerauLevenshtein from 'damerau-levenshtein'
-import { EX_WORDS, IN_WORDS } from './lexicon'
+import { EX_WORDS, IN_WORDS } from './word-tables'
 import type { RawToken } from './raw'
 
 export interface SpellingCorrection {

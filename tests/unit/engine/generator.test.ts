@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { fc, test } from '@fast-check/vitest'
-import { GENERATOR_VERSION, caseFromSpec, generateCase, specKey } from '~~/server/utils/engine/generator'
-import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/utils/engine/templates'
-import type { Case } from '~~/server/utils/engine/types'
+import { GENERATOR_VERSION, caseFromSpec, generateCase, specKey } from '~~/server/lib/engine/generator'
+import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/lib/engine/templates'
+import type { Case } from '~~/server/lib/engine/types'
 import type { Gaze } from '#shared/engine/types'
 import { GAZES } from '#shared/engine/types'
 

@@ -14,48 +14,9 @@
 // Scores: 1 = full marks; 'cap' ≤ 0.5; 'pass' in (0.5, 1); 'lt1' below 1.
 
 import { describe, expect, it } from 'vitest'
-import { gradeRecord } from '~~/server/utils/engine/grader'
-import type { GradeResult } from '~~/server/utils/engine/grader'
-import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
-
-interface Truth {
-  RE: number
-  LE: number
-  gaze?: Gaze
-  distance?: Distance
-  tol?: number
-  shouldNotTest?: boolean
-  /** The learner's own dial readings (rod axis). */
-  readings?: Partial<PerEye<number>>
-  /** Patient-turns: where the patient left each rod. */
-  patientSettings?: PerEye<number>
-}
-
-type ScoreRule = 1 | 'cap' | 'pass' | 'lt1'
-
-interface Row {
-  record: string
-  truth: Truth
-  slips: string[]
-  score: ScoreRule
-  /** The direction mark must be below 1 (torsion claimed on an eye without any). */
-  directionLost?: boolean
-}
-
-/** Truth: signed torsion per eye (positive = excyclo, domain.md §3.3), primary position unless told. */
-const T = (RE: number, LE: number, more: Omit<Truth, 'RE' | 'LE'> = {}): Truth => ({ RE, LE, gaze: 'primary', ...more })
-const N = { distance: 'near' as const }
-const D = { distance: 'distance' as const }
-const row = (record: string, truth: Truth, slips: string[], score: ScoreRule, extra: Partial<Row> = {}): Row => ({ record, truth, slips, score, ...extra })
-
-// slip shorthands (domain.md §5.3 stable codes)
-const DR = (e: Eye) => `direction-reversed:${e}`
-const EW = (e: Eye) => `eye-wrong:${e}`
-const DV = (e: Eye) => `dial-value-as-amount:${e}`
-const AO = (e: Eye) => `amount-off:${e}`
-const DM = (e: Eye) => `direction-missing:${e}`
-const EM = (e: Eye) => `eye-missing:${e}`
-const NP = (e: Eye) => `not-parallel:${e}`
+import type { Distance, Gaze } from '#shared/engine/types'
+import { T, N, D, row, DR, EW, DV, AO, DM, EM, NP, grade, slipKeys, markOf, checkScore } from '../../support/marking-table'
+import type { Row } from '../../support/marking-table'
 
 // ---------------------------------------------------------------------------
 // 1. Layouts: line breaks, bullets, labels, OD/OS, "=", prose (domain.md §5.1 complete record).
@@ -367,32 +328,6 @@ const GROUPS: Array<[string, Row[]]> = [
   ['fuller notes', NOTES_MORE],
   ['eye headings, dial notes', HEADINGS],
 ]
-
-function grade(record: string, t: Truth): GradeResult {
-  return gradeRecord({
-    record,
-    expected: { RE: t.RE, LE: t.LE },
-    gaze: t.gaze,
-    distance: t.distance,
-    shouldNotTest: t.shouldNotTest,
-    readings: t.readings,
-    patientSettings: t.patientSettings,
-    options: t.tol === undefined ? undefined : { tolerance: t.tol },
-  })
-}
-
-const slipKeys = (r: GradeResult): string[] => r.slips.map(s => (s.eye ? `${s.code}:${s.eye}` : s.code)).sort()
-const markOf = (r: GradeResult, c: string) => r.marks.find(m => m.criterion === c)
-
-function checkScore(r: GradeResult, rule: ScoreRule) {
-  if (rule === 1) expect(r.score).toBe(1)
-  else if (rule === 'cap') expect(r.score).toBeLessThanOrEqual(0.5) // domain.md §5.2 critical slips: at most 50 %
-  else if (rule === 'pass') {
-    expect(r.score).toBeGreaterThan(0.5)
-    expect(r.score).toBeLessThan(1)
-  }
-  else expect(r.score).toBeLessThan(1)
-}
 
 const ALL = GROUPS.flatMap(([, rows]) => rows)
 

@@ -5,8 +5,8 @@
 
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
-import { gradeRecord } from '~~/server/utils/engine/grader'
-import type { GradeResult } from '~~/server/utils/engine/grader'
+import { gradeRecord } from '~~/server/lib/engine/grader'
+import type { GradeResult } from '~~/server/lib/engine/grader'
 import { EYES, otherEye } from '#shared/engine/types'
 import type { Eye, PerEye } from '#shared/engine/types'
 

@@ -9,47 +9,9 @@
 // 'pass' = above 0.5 but below 1; 'lt1' = below 1 (not sure how far below).
 
 import { describe, expect, it } from 'vitest'
-import { gradeRecord } from '~~/server/utils/engine/grader'
-import type { GradeResult } from '~~/server/utils/engine/grader'
-import type { Distance, Eye, Gaze } from '#shared/engine/types'
-
-interface Truth {
-  RE: number
-  LE: number
-  gaze?: Gaze
-  distance?: Distance
-  tol?: number
-  shouldNotTest?: boolean
-}
-
-type ScoreRule = 1 | 'cap' | 'pass' | 'lt1'
-
-interface Row {
-  record: string
-  truth: Truth
-  slips: string[]
-  score: ScoreRule
-  /** A direction word is misspelt: it must be read, with a note in the parsed result. */
-  misspelt?: string
-  /** The parser should decline to guess: a problem is reported. */
-  declines?: boolean
-  /** The direction mark must be below 1 (torsion claimed on an eye without any). */
-  directionLost?: boolean
-}
-
-/** Truth: signed torsion per eye (positive = excyclo, domain.md §3.3), primary position unless told. */
-const T = (RE: number, LE: number, more: Omit<Truth, 'RE' | 'LE'> = {}): Truth => ({ RE, LE, gaze: 'primary', ...more })
-const N = { distance: 'near' as const }
-const row = (record: string, truth: Truth, slips: string[], score: ScoreRule, extra: Partial<Row> = {}): Row => ({ record, truth, slips, score, ...extra })
-
-// slip shorthands (domain.md §5.3 stable codes)
-const DR = (e: Eye) => `direction-reversed:${e}`
-const EW = (e: Eye) => `eye-wrong:${e}`
-const DV = (e: Eye) => `dial-value-as-amount:${e}`
-const AO = (e: Eye) => `amount-off:${e}`
-const DM = (e: Eye) => `direction-missing:${e}`
-const AM = (e: Eye) => `amount-missing:${e}`
-const EM = (e: Eye) => `eye-missing:${e}`
+import type { Eye, Gaze } from '#shared/engine/types'
+import { T, N, row, DR, EW, DV, AO, DM, AM, EM, grade, slipKeys, markOf, checkScore } from '../../support/marking-table'
+import type { Truth, Row } from '../../support/marking-table'
 
 // ---------------------------------------------------------------------------
 // 1. Correct, complete records in many clinical styles → full marks, no slips.
@@ -328,30 +290,6 @@ const GROUPS: Array<[string, Row[]]> = [
   ['misspellings', MISSPELT],
   ['declines to guess', DECLINED],
 ]
-
-function grade(record: string, t: Truth): GradeResult {
-  return gradeRecord({
-    record,
-    expected: { RE: t.RE, LE: t.LE },
-    gaze: t.gaze,
-    distance: t.distance,
-    shouldNotTest: t.shouldNotTest,
-    options: t.tol === undefined ? undefined : { tolerance: t.tol },
-  })
-}
-
-const slipKeys = (r: GradeResult): string[] => r.slips.map(s => (s.eye ? `${s.code}:${s.eye}` : s.code)).sort()
-const markOf = (r: GradeResult, c: string) => r.marks.find(m => m.criterion === c)
-
-function checkScore(r: GradeResult, rule: ScoreRule) {
-  if (rule === 1) expect(r.score).toBe(1)
-  else if (rule === 'cap') expect(r.score).toBeLessThanOrEqual(0.5) // domain.md §5.2 critical slips: at most 50 %
-  else if (rule === 'pass') {
-    expect(r.score).toBeGreaterThan(0.5)
-    expect(r.score).toBeLessThan(1)
-  }
-  else expect(r.score).toBeLessThan(1)
-}
 
 const ALL = GROUPS.flatMap(([, rows]) => rows)
 

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest'
-import { generateCase } from '~~/server/utils/engine/generator'
-import { toPresentation } from '~~/server/utils/engine/presentation'
-import { revealTruth } from '~~/server/utils/engine/attempt'
-import { CASE_TEMPLATES } from '~~/server/utils/engine/templates'
+import { generateCase } from '~~/server/lib/engine/generator'
+import { toPresentation } from '~~/server/lib/engine/presentation'
+import { revealTruth } from '~~/server/lib/engine/attempt'
+import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { MODES, GAZES, MUSCLES } from '#shared/engine/types'
 import { torsionToReading } from '#shared/engine/dial'
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { generateCase } from '~~/server/utils/engine/generator'
-import { gradeInterpretation, threeStep, threeStepCandidates, threeStepFromCase } from '~~/server/utils/engine/threeStep'
-import type { Case } from '~~/server/utils/engine/types'
+import { generateCase } from '~~/server/lib/engine/generator'
+import { gradeInterpretation, threeStep, threeStepCandidates, threeStepFromCase } from '~~/server/lib/engine/three-step'
+import type { Case } from '~~/server/lib/engine/types'
 import type { Eye, Muscle, Side } from '#shared/engine/types'
 
 // Parks, Arch Ophthalmol 1958;60:1027-35 — the table as domain.md §7 prints it

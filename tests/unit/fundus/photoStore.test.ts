@@ -9,8 +9,8 @@ import { startS3Fake, type S3Fake } from '../../support/s3-fake'
 
 // Nitro auto-imports server utilities; a plain unit test supplies the one audit.ts uses.
 vi.stubGlobal('nowIso', () => new Date().toISOString())
-const { cleanImage, sniffImageType } = await import('~~/server/utils/fundus/photoFile')
-const { deleteFundusPhoto, storeFundusPhoto } = await import('~~/server/utils/fundus/photoStore')
+const { cleanImage, sniffImageType } = await import('~~/server/lib/fundus/photo-file')
+const { deleteFundusPhoto, storeFundusPhoto } = await import('~~/server/lib/fundus/photo-store')
 const { localPhotoStorage } = await import('~~/server/lib/storage/local')
 const { photoStorageFrom } = await import('~~/server/lib/storage/photo-storage')
 

@@ -1,10 +1,10 @@
 import Papa from 'papaparse'
 import { describe, expect, it } from 'vitest'
-import { resultsCsv } from '~~/server/utils/quiz/csv'
-import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
+import { resultsCsv } from '~~/server/lib/quiz/csv'
+import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
 import type { StudentResult } from '#shared/types/quiz'
-import type { ItemColumn } from '~~/server/utils/quiz/results'
-import { effectiveMarks, pointsOf } from '~~/server/utils/quiz/results'
+import type { ItemColumn } from '~~/server/lib/quiz/results'
+import { effectiveMarks, pointsOf } from '~~/server/lib/quiz/results'
 
 const config = { kind: 'dmr' as const, source: { type: 'engine' as const, templateId: 'normal-standard', title: 'N' }, perStudent: true, mode: 'patient-turns' as const, readScale: false, tolerance: 2, weights: DEFAULT_QUIZ_WEIGHTS }
 

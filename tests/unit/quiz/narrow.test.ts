@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { GENERATOR_VERSION, generateCase } from '~~/server/utils/engine/generator'
-import { getCaseTemplate } from '~~/server/utils/engine/templates'
-import { caseWithin, narrowedCase, narrowingProblems, torsionMeasures } from '~~/server/utils/quiz/narrow'
+import { GENERATOR_VERSION, generateCase } from '~~/server/lib/engine/generator'
+import { getCaseTemplate } from '~~/server/lib/engine/templates'
+import { caseWithin, narrowedCase, narrowingProblems, torsionMeasures } from '~~/server/lib/quiz/narrow'
 
 describe('narrowed case templates', () => {
   it('keeps the engine at generator version 1: narrowing never changes what the engine makes', () => {

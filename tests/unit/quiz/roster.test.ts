@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { ROSTER_MAX_BYTES, RosterFileError, checkRoster, rosterText } from '~~/server/utils/roster'
+import { ROSTER_MAX_BYTES, RosterFileError, checkRoster, rosterText } from '~~/server/lib/roster/roster'
 
 const ctx = {
   cohorts: [{ id: 1, name: 'Kestrel cohort' }, { id: 2, name: 'Heron cohort' }],

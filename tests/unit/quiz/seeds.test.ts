@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
-import { buildItemCase, DEFAULT_QUIZ_WEIGHTS } from '~~/server/utils/quiz/items'
-import type { DmrItemConfig } from '~~/server/utils/quiz/items'
-import { quizCaseSeed } from '~~/server/utils/quiz/seeds'
+import { buildItemCase, DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
+import type { DmrItemConfig } from '~~/server/lib/quiz/items'
+import { quizCaseSeed } from '~~/server/lib/quiz/seeds'
 
 const config = (over: Partial<DmrItemConfig> = {}): DmrItemConfig => ({
   kind: 'dmr',

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import type { QuizRow } from '~~/db/schema'
-import { assertSittingOpen, feedbackReleased, quizPhase, sittingDeadline, sittingStatus } from '~~/server/utils/quiz/timing'
+import { assertSittingOpen, feedbackReleased, quizPhase, sittingDeadline, sittingStatus } from '~~/server/lib/quiz/timing'
 
 const at = (iso: string) => new Date(iso)
 const quiz = (over: Partial<QuizRow> = {}): QuizRow => ({

@@ -5,9 +5,9 @@ import { makeRng } from '#shared/engine/random'
 import { countsFromHistory, detectPatterns } from '#shared/review/patterns'
 import { PROFILES, SIMULATION_TEMPLATES, simulateAttempt } from '../../../db/seed/learnerModel'
 import type { Profile } from '../../../db/seed/learnerModel'
-import { ruleSwapAttemptOf } from '../../../server/utils/attempts'
-import { gradeAttempt } from '../../../server/utils/engine/attempt'
-import { generateCase } from '../../../server/utils/engine/generator'
+import { ruleSwapAttemptOf } from '~~/server/lib/practice/attempts'
+import { gradeAttempt } from '~~/server/lib/engine/attempt'
+import { generateCase } from '~~/server/lib/engine/generator'
 
 function history(profile: Profile, n: number, key: string) {
   const rng = makeRng(key)

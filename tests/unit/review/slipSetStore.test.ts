@@ -2,7 +2,7 @@
 // gives every existing attempt the key of its attempt_slips rows, the per-learner
 // counts read from it equal countsFromHistory, and the planner answers the
 // per-learner queries from their covering indexes without a sort (EXPLAIN QUERY
-// PLAN; no timing here — npm run bench:review measures speed).
+// PLAN; no timing here — npm run perf:review measures speed).
 import SQLite from 'better-sqlite3'
 import { Kysely, Migrator, SqliteDialect } from 'kysely'
 import type { CompiledQuery } from 'kysely'
@@ -16,8 +16,8 @@ import { reviewFilterQuery } from '#shared/schemas/review'
 import { migrateToLatest } from '../../../db/open'
 import { staticMigrationProvider } from '../../../db/migrations'
 import type { Database } from '../../../db/schema'
-import { learnerCounts, needsHelp } from '../../../server/utils/review/learners'
-import type { ReviewScope } from '../../../server/utils/review/scope'
+import { learnerCounts, needsHelp } from '~~/server/lib/review/learners'
+import type { ReviewScope } from '~~/server/lib/review/scope'
 import { attemptValues } from '../../support/reviewRows'
 import { attemptOn, historyArb } from '../../support/slipHistories'
 
@@ -73,7 +73,7 @@ async function storedAndRecounted(db: Kysely<Database>) {
 describe('migration 0007', () => {
   it('backfills each attempt\'s slip set from its slip rows, across more than one batch, and the counts follow', async () => {
     const db = open()
-    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
     const before = await migrator.migrateTo('0006_practice_extra')
     expect(before.error).toBeUndefined()
     const { cohorts, ids, caseId } = await people(db, 40)
@@ -117,7 +117,7 @@ describe('migration 0007', () => {
 describe('migration 0012', () => {
   it('backfills each attempt\'s rule-swap evidence from its slips, truth and record, across more than one batch, and the counts follow', async () => {
     const db = open()
-    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: true })
+    const migrator = new Migrator({ db, provider: staticMigrationProvider, allowUnorderedMigrations: false })
     expect((await migrator.migrateTo('0009_quiz_fundus')).error).toBeUndefined()
     const { cohorts, ids, caseId } = await people(db, 40)
     // 5,200 attempts: the backfill works in ranges of 5,000 attempt ids

@@ -12,7 +12,7 @@ import { reviewFilterQuery } from '#shared/schemas/review'
 import { migrateToLatest, openDatabase } from '../../../db/open'
 import type { Database } from '../../../db/schema'
 import { seedDemoIfWanted } from '../../../db/seed'
-import { learnerCounts } from '../../../server/utils/review/learners'
+import { learnerCounts } from '~~/server/lib/review/learners'
 
 // the clock stands still during the seed, so "after now" means exactly that
 const NOW = '2026-12-02T09:30:00.000Z'

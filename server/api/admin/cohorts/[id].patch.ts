@@ -1,4 +1,8 @@
-import { cohortBody, idParam } from '#shared/schemas/admin'
+// PATCH /api/admin/cohorts/:id (admin): rename a cohort `{ name }` (409 naming `name`
+// when another cohort has it).
+import { idParam } from '#shared/schemas/common'
+import { cohortBody } from '#shared/schemas/admin'
+import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

@@ -1,3 +1,4 @@
+// GET /api/admin/cohorts (admin): the cohorts with member counts.
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   const db = await useDb()

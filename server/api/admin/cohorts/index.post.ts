@@ -1,4 +1,7 @@
+// POST /api/admin/cohorts (admin): create a cohort `{ name }` (409 naming `name` when
+// another cohort has it).
 import { cohortBody } from '#shared/schemas/admin'
+import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')

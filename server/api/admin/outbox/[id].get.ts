@@ -1,4 +1,5 @@
-import { idParam } from '#shared/schemas/admin'
+// GET /api/admin/outbox/:id (admin): one caught message.
+import { idParam } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')

@@ -1,4 +1,5 @@
-import { pageQuery } from '#shared/schemas/admin'
+// GET /api/admin/outbox (admin): caught mail and the retry queue, paged.
+import { pageQuery } from '#shared/schemas/common'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')

@@ -1,3 +1,5 @@
+// GET /api/admin/users (admin): `?q&role&cohortId&sort&dir&page&pageSize` → `{ items,
+// total, page, pageSize }`
 import { userListQuery } from '#shared/schemas/admin'
 
 export default defineEventHandler(async (event) => {

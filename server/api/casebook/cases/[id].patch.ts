@@ -1,6 +1,10 @@
-import { casebookCasePatch, idParam } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, casebookCaseFor, caseOut } from '~~/server/utils/quiz/casebook'
-import { caseFromSpec } from '~~/server/utils/engine/generator'
+// PATCH /api/casebook/cases/:id (tutor, lecturer): change an exact case, or `{ archived
+// }`.
+import { idParam } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import { casebookCasePatch } from '#shared/schemas/casebook'
+import { casebookCaseFor, caseOut } from '~~/server/lib/casebook/casebook'
+import { caseFromSpec } from '~~/server/lib/engine/generator'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,6 +1,10 @@
+// POST /api/casebook/cases (tutor, lecturer): `{ title, spec /* caseSpecSchema */,
+// tolerance? }`; impossible entries are 400 with paths such as
+// `spec.gazes.primary.torsion.RE`.
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCaseBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, caseOut } from '~~/server/utils/quiz/casebook'
-import { caseFromSpec } from '~~/server/utils/engine/generator'
+import { caseOut } from '~~/server/lib/casebook/casebook'
+import { caseFromSpec } from '~~/server/lib/engine/generator'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,13 +1,17 @@
+// POST /api/casebook/preview (tutor, lecturer): `{ source: { type: 'engine', templateId
+// } \| { type: 'template' \| 'case', id }, seed?, mode? }` → `{ title, seed, mode,
+// presentation, truth, tolerance }` (the presentation is exactly what a student gets)
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { randomBytes } from 'node:crypto'
 import { casePreviewBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
-import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
-import { revealTruth } from '~~/server/utils/engine/attempt'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
+import { revealTruth } from '~~/server/lib/engine/attempt'
+import { toPresentation } from '~~/server/lib/engine/presentation'
+import type { CasePreview } from '#shared/types/casebook'
 
 // A preview shows the presentation exactly as a student receives it, and beside it
 // (for the tutor only) the truth the grader will use.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasePreview> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const body = await readBodyAs(event, casePreviewBody)
   const db = await useDb()

@@ -1,10 +1,13 @@
+// POST /api/casebook/preview/turns (tutor, lecturer): `{ source, seed, trial, gaze,
+// distance, prisms?, lights? }` → the patient's turn on the previewed case (nothing
+// stored)
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { caseSourceSchema } from '#shared/schemas/casebook'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { seedSchema } from '#shared/engine/schemas'
-import { CASEBOOK_ROLES } from '~~/server/utils/quiz/casebook'
-import { caseFromSnapshot, snapshotSource } from '~~/server/utils/quiz/items'
-import { patientSetsRods } from '~~/server/utils/engine/patient'
+import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
+import { patientSetsRods } from '~~/server/lib/engine/patient'
 
 const previewTurnBody = turnRequestSchema.extend({
   source: caseSourceSchema,

@@ -1,6 +1,10 @@
-import { casebookTemplatePatch, idParam } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, casebookTemplateFor, templateOut } from '~~/server/utils/quiz/casebook'
-import { narrowingProblems } from '~~/server/utils/quiz/narrow'
+// PATCH /api/casebook/templates/:id (tutor, lecturer): change a narrowed template, or `{
+// archived }`.
+import { idParam } from '#shared/schemas/common'
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
+import { casebookTemplatePatch } from '#shared/schemas/casebook'
+import { casebookTemplateFor, templateOut } from '~~/server/lib/casebook/casebook'
+import { narrowingProblems } from '~~/server/lib/quiz/narrow'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,6 +1,10 @@
+// POST /api/casebook/templates (tutor, lecturer): `{ title, templateId, ranges?,
+// tolerance?, notes? }`; ranges must sit inside the published ones and leave the
+// generator room (400 naming `ranges.torsion`…).
+import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookTemplateBody } from '#shared/schemas/casebook'
-import { CASEBOOK_ROLES, templateOut } from '~~/server/utils/quiz/casebook'
-import { narrowingProblems } from '~~/server/utils/quiz/narrow'
+import { templateOut } from '~~/server/lib/casebook/casebook'
+import { narrowingProblems } from '~~/server/lib/quiz/narrow'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)

@@ -1,10 +1,12 @@
 // The fundus photographs of one of the caller's practice cases: the dial-free
 // pictures, earlier measurements with their feedback, and — once both a fundus
 // measurement and a double Maddox rod record exist — subjective against objective.
-import { idParam } from '#shared/schemas/admin'
-import { compareWithDmr } from '~~/server/utils/fundus/compare'
-import { fundusForCase } from '~~/server/utils/fundus/generate'
-import { toFundusPresentation } from '~~/server/utils/fundus/presentation'
+import { idParam } from '#shared/schemas/common'
+import { compareWithDmr } from '~~/server/lib/fundus/compare'
+import { fundusForCase } from '~~/server/lib/fundus/generate'
+import { toFundusPresentation } from '~~/server/lib/fundus/presentation'
+import { dmrRecordedOn, ownCaseForFundus } from '~~/server/lib/fundus/case-fundus'
+import { listFundusAttempts } from '~~/server/lib/fundus/attempts'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

@@ -1,7 +1,8 @@
 // Delete a photograph (its uploader, a lecturer or an admin): the row, its shares and
 // the measurements made on it go in one transaction, then the stored object.
-import { idParam } from '#shared/schemas/admin'
-import { deleteFundusPhoto, fundusPhotoStorage } from '~~/server/utils/fundus/photoStore'
+import { idParam } from '#shared/schemas/common'
+import { deleteFundusPhoto, fundusPhotoStorage } from '~~/server/lib/fundus/photo-store'
+import { fundusPhotoFor, managesFundusPhoto, photoItemsQuery } from '~~/server/lib/fundus/photo-access'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')

@@ -1,8 +1,12 @@
 // One fundus photograph's details, for anyone allowed to see it (others: 404).
+import { idParam } from '#shared/schemas/common'
 import { NORMAL_RANGES } from '#shared/engine/fundus/normals'
-import { idParam } from '#shared/schemas/admin'
+import { fundusPhotoFor } from '~~/server/lib/fundus/photo-access'
+import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
+import { listFundusAttempts } from '~~/server/lib/fundus/attempts'
+import type { FundusPhotoReply } from '#shared/types/fundus'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<FundusPhotoReply> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const photo = await fundusPhotoFor(user, id)

@@ -3,6 +3,9 @@
 // with; students see the marked photographs shared with their cohort, to practise on.
 import { NORMAL_RANGES } from '#shared/engine/fundus/normals'
 import type { FundusPhotoList } from '#shared/types/fundus'
+import { photosHeldForQuiz, seesEveryFundusPhoto, shareableCohortIds } from '~~/server/lib/fundus/photo-access'
+import { cohortIdsOf } from '~~/server/lib/roster/cohorts'
+import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
 
 export default defineEventHandler(async (event): Promise<FundusPhotoList> => {
   const user = await requireSignedIn(event)

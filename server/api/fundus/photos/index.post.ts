@@ -2,8 +2,10 @@
 // Refused clearly, and nothing stored, unless it is a JPEG or PNG by its own bytes,
 // at most 10 MB, readable, and shared only with cohorts the uploader may share with.
 import { photoUploadFields } from '#shared/schemas/fundus'
-import { FUNDUS_PHOTO_MAX_BYTES, cleanImage, sniffImageType } from '~~/server/utils/fundus/photoFile'
-import { fundusPhotoStorage, storeFundusPhoto } from '~~/server/utils/fundus/photoStore'
+import { FUNDUS_PHOTO_MAX_BYTES, cleanImage, sniffImageType } from '~~/server/lib/fundus/photo-file'
+import { fundusPhotoStorage, storeFundusPhoto } from '~~/server/lib/fundus/photo-store'
+import { shareableCohortIds } from '~~/server/lib/fundus/photo-access'
+import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
 
 const MB = FUNDUS_PHOTO_MAX_BYTES / 1024 / 1024
 /** Room for the form's text fields and multipart boundaries around the file. */

@@ -1,5 +1,8 @@
+// POST /api/invitations/:token/accept (anyone): `{ name, password }` → creates the
+// account and signs in; the password rules of *Passwords* apply
 import { homeFor } from '#shared/auth/roles'
 import { acceptInvitationBody } from '#shared/schemas/auth'
+import { invitationGone } from '~~/server/lib/roster/invitations'
 
 export default defineEventHandler(async (event) => {
   const token = getRouterParam(event, 'token') ?? ''

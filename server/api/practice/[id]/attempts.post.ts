@@ -1,7 +1,11 @@
 // Submit an attempt on my practice case: graded and stored by recordAttempt; in
 // practice the result, with the truth, comes back at once.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { caseIdParams, practiceAttemptSchema } from '#shared/schemas/practice'
 import type { PracticeAttemptResult } from '#shared/types/practice'
+import { withCaseErrors } from '~~/server/lib/practice/http'
+import { findOwnedCase, practiceCaseView } from '~~/server/lib/practice/cases'
+import { attemptResultOf, recordAttempt } from '~~/server/lib/practice/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeAttemptResult> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,4 +1,5 @@
 // Autosave the bench (dials, prisms, lights, record pad) so a reload resumes it.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { benchDraftSchema, caseIdParams } from '#shared/schemas/practice'
 
 export default defineEventHandler(async (event) => {

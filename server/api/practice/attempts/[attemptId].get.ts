@@ -1,7 +1,10 @@
 // Read-only replay of one of my practice attempts, exactly as it was graded.
+import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { attemptIdParams } from '#shared/schemas/practice'
 import type { AttemptReplay } from '#shared/types/practice'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { toPresentation } from '~~/server/lib/engine/presentation'
+import { caseTitle, regenerateCase } from '~~/server/lib/practice/cases'
+import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 
 export default defineEventHandler(async (event): Promise<AttemptReplay> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)

@@ -1,9 +1,10 @@
-import { idParam } from '#shared/schemas/admin'
-import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { newQuizSeed } from '~~/server/utils/quiz/seeds'
-import { quizItems } from '~~/server/utils/quiz/sitting'
+// POST /api/quizzes/:id/duplicate (manager): an unpublished copy with a new seed → `201`
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
+import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/quiz/access'
+import { staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { newQuizSeed } from '~~/server/lib/quiz/seeds'
+import { quizItems } from '~~/server/lib/data/quiz-items'
 
 // A copy keeps the settings, items and (the caller's own) cohorts, unpublished,
 // with a fresh seed: new patients, so answers from the first sitting do not carry over.

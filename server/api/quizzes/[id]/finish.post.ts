@@ -1,11 +1,13 @@
-import { idParam } from '#shared/schemas/admin'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { studentQuizDetail } from '~~/server/utils/quiz/student'
-import { sittingOf } from '~~/server/utils/quiz/sitting'
-import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+// POST /api/quizzes/:id/finish (student, assigned): finish the sitting early.
+import { idParam } from '#shared/schemas/common'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { studentQuizDetail } from '~~/server/lib/quiz/student'
+import { sittingOf } from '~~/server/lib/quiz/sitting'
+import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import type { StudentQuizDetail } from '#shared/types/quiz'
 
 // Finishing ends the sitting early: nothing can be changed after it.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StudentQuizDetail> => {
   const user = await requireRole(event, 'student')
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

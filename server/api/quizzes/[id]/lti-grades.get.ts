@@ -1,7 +1,7 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { gradeLog } from '~~/server/lib/lti/grades'
-import { quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
+import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 
 // The quiz's scores sent to learning platforms (or waiting, with the last error): a tutor
 // sees their own cohorts' students.

@@ -1,7 +1,11 @@
-import { idParam } from '#shared/schemas/admin'
-import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { quizPhase } from '~~/server/utils/quiz/timing'
+// POST /api/quizzes/:id/release (owner, lecturer, admin (another tutor `403`)): after
+// the close time: opens feedback and e-mails every student of the cohorts; `409` while
+// open. Released means final: no new sittings, saves or submissions (`409`), and the
+// close time cannot move later; scores go to any linked learning platform
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
+import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/lib/quiz/access'
+import { quizPhase } from '~~/server/lib/quiz/timing'
 import { deliverDueGrades, queueQuizGrades } from '~~/server/lib/lti/grades'
 
 // Release results: unlocks every student's feedback and e-mails each of them. Only

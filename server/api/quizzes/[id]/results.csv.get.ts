@@ -1,8 +1,11 @@
-import { idParam } from '#shared/schemas/admin'
-import { quizForStaff, quizReach } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { resultsCsv } from '~~/server/utils/quiz/csv'
-import { computeResults } from '~~/server/utils/quiz/results'
+// GET /api/quizzes/:id/results.csv (tutor, lecturer, admin (manager; a tutor: their
+// cohorts' students only)): `text/csv`: one row per student, a column per item and per
+// criterion, slips and totals
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
+import { quizForStaff, quizReach } from '~~/server/lib/quiz/access'
+import { resultsCsv } from '~~/server/lib/quiz/csv'
+import { computeResults } from '~~/server/lib/quiz/results'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

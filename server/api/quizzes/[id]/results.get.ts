@@ -1,10 +1,18 @@
-import { idParam } from '#shared/schemas/admin'
+// GET /api/quizzes/:id/results (manager (a tutor: their cohorts' students only)):
+// `?q&cohortId&status&sort=name\|total\|slips\|time\|status\|item-<id>&dir&page&pageSize`
+// → `{ quiz, columns, items: [{ studentId, name, status, items: { [itemId]: { attemptId,
+// earned, possible, marks, slips, overridden } }, earned, possible, score, slips,
+// timeTakenMs }], total, page, pageSize, summary: { students, started, finished,
+// meanScore /* those who finished; null while nobody has */ }, release: { students,
+// neverSat } \| null /* what releasing would e-mail; for whoever may release, before
+// release */ }`
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { resultsQuery } from '#shared/schemas/quiz'
-import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { quizSettings } from '~~/server/utils/quiz/present'
-import { computeResults } from '~~/server/utils/quiz/results'
-import { resultsPage } from '~~/server/utils/quiz/results-page'
+import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
+import { quizSettings } from '~~/server/lib/quiz/present'
+import { computeResults } from '~~/server/lib/quiz/results'
+import { resultsPage } from '~~/server/lib/quiz/results-page'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)

@@ -1,12 +1,16 @@
-import { idParam } from '#shared/schemas/admin'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { studentQuizDetail } from '~~/server/utils/quiz/student'
-import { ensureQuizCase, quizItems, sittingOf } from '~~/server/utils/quiz/sitting'
-import { quizPhase, sittingDeadline } from '~~/server/utils/quiz/timing'
+// POST /api/quizzes/:id/start (student, assigned): start the sitting (fixes the
+// deadline; starting twice changes nothing).
+import { idParam } from '#shared/schemas/common'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { studentQuizDetail } from '~~/server/lib/quiz/student'
+import { quizItems } from '~~/server/lib/data/quiz-items'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
+import { quizPhase, sittingDeadline } from '~~/server/lib/quiz/timing'
+import type { StudentQuizDetail } from '#shared/types/quiz'
 
 // Starting stores the sitting (its deadline fixed now) and every item's case in one
 // transaction. Starting again is harmless: the first start stands.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StudentQuizDetail> => {
   const user = await requireRole(event, 'student')
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

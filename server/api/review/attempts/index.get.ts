@@ -1,8 +1,12 @@
+// GET /api/review/attempts (tutor, lecturer): same filters + `code`, `learnerId`,
+// `trueDirection`, `recordedDirection`, `amountBand` (the last three need `eye`),
+// `page`, `pageSize` → `{ items: [{ id, learner, cohort, kind, quizId, quizTitle,
+// templateId, condition, submittedAt, score, record, slips }], total, page, pageSize }`
 import { reviewAttemptsQuery } from '#shared/schemas/review'
 import type { ReviewAttemptsResponse } from '#shared/types/review'
-import { drillAttempts } from '~~/server/utils/review/drill'
-import { reviewRequest } from '~~/server/utils/review/request'
-import { learnerInScope } from '~~/server/utils/review/scope'
+import { drillAttempts } from '~~/server/lib/review/drill'
+import { reviewRequest } from '~~/server/lib/review/request'
+import { learnerInScope } from '~~/server/lib/review/scope'
 
 /** The attempts behind a number on the review page. */
 export default defineEventHandler(async (event): Promise<ReviewAttemptsResponse> => {

@@ -1,13 +1,17 @@
-import { idParam } from '#shared/schemas/admin'
+// GET /api/review/practice-sets/:id (tutor, lecturer): one set with `before`/`after` (`{
+// attempts, slipped, rate /* per 100 */ }`) overall and per learner, cases done and the
+// conditions used.
+import { idParam } from '#shared/schemas/common'
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { Eye } from '#shared/engine/types'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
-import { setProgress } from '~~/server/utils/review/practiceSets'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleSets } from '~~/server/utils/review/setAccess'
+import { setProgress } from '~~/server/lib/review/practice-sets'
+import { visibleSets } from '~~/server/lib/review/set-access'
+import type { PracticeSetDetail } from '#shared/types/review'
 
 /** One practice set and whether the focus slip became rarer after it was sent. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PracticeSetDetail> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

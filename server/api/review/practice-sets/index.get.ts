@@ -1,9 +1,12 @@
+// GET /api/review/practice-sets (tutor: theirs and their cohorts'; lecturer): the
+// practice sets sent.
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { PATTERN_INFO, isPatternCode } from '#shared/review/patterns'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { visibleSets } from '~~/server/utils/review/setAccess'
+import { visibleSets } from '~~/server/lib/review/set-access'
+import type { PracticeSetRow } from '#shared/types/review'
 
 /** Practice sets sent from the review (tutors: theirs and their cohorts'), newest first. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<{ items: PracticeSetRow[] }> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const db = await useDb()
   const rows = await visibleSets(db, db.selectFrom('practice_sets')

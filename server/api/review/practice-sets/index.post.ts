@@ -1,7 +1,11 @@
+// POST /api/review/practice-sets (tutor, lecturer): `{ learnerIds: [id] \| cohortId,
+// focus /* a pattern code */, eye? /* required for left-right-rule-swapped */, size?
+// (3–12, default 6), note? }` → `201 { id, title, learners, casesPerLearner }`; e-mails
+// each learner; a learner or cohort outside the caller's is `404`
+import { REVIEW_ROLES } from '#shared/auth/roles'
 import { practiceSetBody } from '#shared/schemas/review'
-import { createPracticeSet } from '~~/server/utils/review/practiceSets'
-import { REVIEW_ROLES } from '~~/server/utils/review/request'
-import { reviewScopeFor } from '~~/server/utils/review/scope'
+import { createPracticeSet } from '~~/server/lib/review/practice-sets'
+import { reviewScopeFor } from '~~/server/lib/review/scope'
 
 /** Send a targeted practice set to some learners or a whole cohort; each learner gets an e-mail. */
 export default defineEventHandler(async (event) => {

@@ -1,4 +1,4 @@
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { platformPatchBody } from '#shared/schemas/lti'
 import { platformView } from '~~/server/lib/lti/platforms'
 

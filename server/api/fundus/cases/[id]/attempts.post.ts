@@ -1,10 +1,12 @@
 // A learner's disc–fovea measurement of both eyes of their practice case, graded
 // against the case's fundus. The angle is computed here from the marks.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { caseFundusAttemptBody } from '#shared/schemas/fundus'
-import { compareWithDmr } from '~~/server/utils/fundus/compare'
-import { fundusForCase } from '~~/server/utils/fundus/generate'
-import { gradeFundus } from '~~/server/utils/fundus/grade'
+import { compareWithDmr } from '~~/server/lib/fundus/compare'
+import { fundusForCase } from '~~/server/lib/fundus/generate'
+import { gradeFundus } from '~~/server/lib/fundus/grade'
+import { dmrRecordedOn, learnerCohortId, ownCaseForFundus } from '~~/server/lib/fundus/case-fundus'
+import { assertMarksOnPicture, storeFundusAttempt } from '~~/server/lib/fundus/attempts'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

@@ -1,7 +1,10 @@
 // A learner measures an uploaded photograph: graded against the tutor's reference marks.
-import { idParam } from '#shared/schemas/admin'
+import { idParam } from '#shared/schemas/common'
 import { photoFundusAttemptBody } from '#shared/schemas/fundus'
-import { ddUnitFromMarks, gradeFundus } from '~~/server/utils/fundus/grade'
+import { ddUnitFromMarks, gradeFundus } from '~~/server/lib/fundus/grade'
+import { fundusPhotoFor } from '~~/server/lib/fundus/photo-access'
+import { assertMarksOnPicture, storeFundusAttempt } from '~~/server/lib/fundus/attempts'
+import { learnerCohortId } from '~~/server/lib/fundus/case-fundus'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

@@ -2,9 +2,10 @@
 // rule, or a quiz that uses the photograph (fundusPhotoImageFor) — others: 404.
 // Served from the photo storage (a private folder or bucket), never from public/,
 // and never cached by shared caches.
-import { idParam } from '#shared/schemas/admin'
-import { isStorageName } from '~~/server/utils/fundus/photoFile'
-import { fundusPhotoStorage } from '~~/server/utils/fundus/photoStore'
+import { idParam } from '#shared/schemas/common'
+import { isStorageName } from '~~/server/lib/fundus/photo-file'
+import { fundusPhotoStorage } from '~~/server/lib/fundus/photo-store'
+import { fundusPhotoImageFor } from '~~/server/lib/fundus/photo-access'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)

@@ -1,8 +1,11 @@
 // The uploader (or a lecturer or admin) marks the reference disc centre and fovea,
 // in image pixels; the reference angle is computed here.
+import { idParam } from '#shared/schemas/common'
 import { discFoveaAngle } from '#shared/engine/fundus/geometry'
-import { idParam } from '#shared/schemas/admin'
 import { photoReferenceBody } from '#shared/schemas/fundus'
+import { fundusPhotoFor, managesFundusPhoto } from '~~/server/lib/fundus/photo-access'
+import { assertMarksOnPicture } from '~~/server/lib/fundus/attempts'
+import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')

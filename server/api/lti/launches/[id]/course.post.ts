@@ -1,6 +1,7 @@
 import { courseLinkBody, launchParam } from '#shared/schemas/lti'
 import { CLAIM } from '~~/server/lib/lti/claims'
 import { nextPath, ownLaunch } from '~~/server/lib/lti/flow'
+import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
 // A tutor launching from a new course links it to a cohort they teach, or to a new one
 // (they then teach it). Learners launching from the course later join that cohort.

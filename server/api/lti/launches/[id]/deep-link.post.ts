@@ -3,8 +3,8 @@ import { CLAIM, DEEP_LINKING_REQUEST } from '~~/server/lib/lti/claims'
 import { deepLinkingResponse } from '~~/server/lib/lti/deep-linking'
 import { ownLaunch, readForm } from '~~/server/lib/lti/flow'
 import { LtiRefusal, autoPostPage, refusalPage } from '~~/server/lib/lti/html'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { computeResults } from '~~/server/utils/quiz/results'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { computeResults } from '~~/server/lib/quiz/results'
 
 // The tutor's choice on the deep-linking page (an HTML form, so the answer can post on to
 // the platform): the quiz goes back to the course as a resource link with a line item

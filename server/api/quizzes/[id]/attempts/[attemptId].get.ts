@@ -1,10 +1,16 @@
+// GET /api/quizzes/:id/attempts/:attemptId (manager (a tutor: their cohorts' students),
+// or the student who made it): the attempt as left (gaze, distance, readings, prisms,
+// lights, record, trial), the patient's turn, the presentation and — for staff, or the
+// student once feedback is open — the marks with overrides; another student's attempt is
+// `404`
 import { quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
-import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
+import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
+import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
+import type { QuizAttemptView } from '#shared/types/quiz'
 
 // Staff open any attempt of a quiz they manage; a student only their own (anyone
 // else's is 404), and its marks only once feedback is open.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizAttemptView> => {
   const user = await requireSignedIn(event)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const db = await useDb()

@@ -1,10 +1,18 @@
+// GET /api/quizzes/:id/fundus-attempts/:attemptId (manager (a tutor: their cohorts'
+// students), or the student who made it): a fundus item's attempt: `{ item: { eyes },
+// attempt: { marks, submittedAt }, presentation \| pictures \| photo /* the student gets
+// pictures until feedback opens */, counts, feedbackOpen, reference, result: { result /*
+// the fundus grading */, marks, points, score, comparison }, overrides }`; `reference`
+// and `result` only for staff, or the student once feedback is open; another student's
+// attempt is `404` (results columns say `kind: 'fundus'` to link here)
 import { quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/utils/quiz/access'
-import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
+import { assertStudentInReach, quizForStaff, quizForStudent } from '~~/server/lib/quiz/access'
+import { quizFundusAttemptView } from '~~/server/lib/quiz/fundus-attempt-view'
+import type { QuizFundusAttemptView } from '#shared/types/quiz'
 
 // A fundus item's attempt: staff open any attempt of a quiz they manage; a student
 // only their own (anyone else's is 404), and its marks only once feedback is open.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizFundusAttemptView> => {
   const user = await requireSignedIn(event)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const db = await useDb()

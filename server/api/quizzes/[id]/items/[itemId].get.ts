@@ -1,11 +1,20 @@
+// GET /api/quizzes/:id/items/:itemId (student (assigned, started)): `{ kind: 'dmr',
+// caseId, prompt, mode, readScale, interpretation, presentation, draft, turns, attempts:
+// [{ attemptId, submittedAt }], attemptsLeft, deadline, serverNow }`, or `{ kind:
+// 'fundus', prompt, eyes, presentation: null, pictures: { RE?, LE?: { imageUrl, width,
+// height, eye } } /* a case's fundus as server-rendered PNGs, sized in disc diameters
+// */, photo: { imageUrl, width, height, eye }, draft, attempts, attemptsLeft, deadline,
+// serverNow }` — never the truth, reference marks, angle or a generated picture's disc
+// and fovea coordinates
 import type { StudentQuizItemPage } from '#shared/types/quiz'
 import { quizItemParams } from '#shared/schemas/quiz'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
-import { studentFundusItem } from '~~/server/utils/quiz/fundus-sitting'
-import { caseTurns, regenerateCase } from '~~/server/utils/cases'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
+import { studentFundusItem } from '~~/server/lib/quiz/fundus-sitting'
+import { caseTurns, regenerateCase } from '~~/server/lib/practice/cases'
+import { toPresentation } from '~~/server/lib/engine/presentation'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // One item for the bench: the presentation (never the truth), the autosaved draft and
 // the patient's turns so far, so a reload or a restarted server picks up where it was.

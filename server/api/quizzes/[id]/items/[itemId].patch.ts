@@ -1,11 +1,14 @@
+// PATCH /api/quizzes/:id/items/:itemId (owner, lecturer, admin; another tutor 403):
+// change an item (409 once the quiz is locked).
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemParams, quizItemPatch } from '#shared/schemas/quiz'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/utils/quiz/items'
-import { quizItemOf, quizItems } from '~~/server/utils/quiz/sitting'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { assertWeightsOfKind, fixedSource, readItemConfig, resolveWeights, snapshotFundusSource, snapshotSource } from '~~/server/lib/quiz/items'
+import { quizItemOf, quizItems } from '~~/server/lib/data/quiz-items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, itemId } = paramsAs(event, quizItemParams)
   const body = await readBodyAs(event, quizItemPatch)

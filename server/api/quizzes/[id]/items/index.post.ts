@@ -1,11 +1,14 @@
-import { idParam } from '#shared/schemas/admin'
+// POST /api/quizzes/:id/items (owner, lecturer, admin; another tutor 403): add an item,
+// `{ kind: 'dmr' | 'fundus', … }` (shared/schemas/quiz.ts quizItemBody).
+import { idParam } from '#shared/schemas/common'
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizItemBody } from '#shared/schemas/quiz'
-import { assertManagesQuiz, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertUnlocked, staffQuizDetail } from '~~/server/utils/quiz/detail'
-import { itemConfigFromBody } from '~~/server/utils/quiz/items'
+import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
+import { assertUnlocked, staffQuizDetail } from '~~/server/lib/quiz/detail'
+import { itemConfigFromBody } from '~~/server/lib/quiz/items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, quizItemBody)

@@ -1,14 +1,20 @@
+// POST /api/quizzes/:id/attempts/:attemptId/overrides (manager (a tutor: their cohorts'
+// students; others `404`)): `{ criterion, score /* 0–1 */, reason }` on the attempt that
+// counts; audit-logged → `201` the attempt
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
-import { quizAttemptView } from '~~/server/utils/quiz/attempt-view'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { effectiveMarks, loadOverrides } from '~~/server/utils/quiz/results'
+import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'
+import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/overrides'
+import { quizAttemptView } from '~~/server/lib/quiz/attempt-view'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { effectiveMarks, loadOverrides } from '~~/server/lib/quiz/results'
+import { countingAttempt } from '~~/server/lib/data/attempts'
+import { quizItem } from '~~/server/lib/data/quiz-items'
+import type { QuizAttemptView } from '#shared/types/quiz'
 
 // Change one criterion's mark on the attempt that counts, with a reason; audit-logged
 // in the same transaction.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizAttemptView> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const body = await readBodyAs(event, overrideBody)
@@ -18,10 +24,9 @@ export default defineEventHandler(async (event) => {
   if (!attempt) notFound('That attempt')
   // a tutor changes only their own cohorts' students' marks
   await assertStudentInReach(db, user, id, attempt.learner_id)
-  const latest = await db.selectFrom('attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id)
-    .orderBy('id', 'desc').executeTakeFirstOrThrow()
+  const latest = await countingAttempt(db, { quizId: id, itemId: attempt.quiz_item_id, learnerId: attempt.learner_id })
   assertCountingAttempt(attempt.id, latest.id)
-  const item = await db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow()
+  const item = await quizItem(db, attempt.quiz_item_id!)
   const overrides = (await loadOverrides(db, id)).filter(o => o.attempt_id === attempt.id)
   const mark = effectiveMarks(attempt, readItemConfig(item), quiz.interpretation === 1, overrides).find(m => m.criterion === body.criterion)
   if (!mark) badRequest([{ path: 'criterion', message: `This attempt has no “${body.criterion}” mark to change.` }])

@@ -1,17 +1,23 @@
+// POST /api/quizzes/:id/fundus-attempts/:attemptId/overrides (manager (a tutor: their
+// cohorts' students; others `404`)): `{ criterion: 'fundusAngle' \| 'fundusFinding',
+// score, reason }` on the attempt that counts; audit-logged → `201` the attempt
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { KIND_CRITERIA, overrideBody, quizAttemptParams } from '#shared/schemas/quiz'
-import { assertStudentInReach, quizForStaff } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { assertCountingAttempt, storeMarkOverride } from '~~/server/utils/quiz/overrides'
-import { quizFundusAttemptView } from '~~/server/utils/quiz/fundus-attempt-view'
-import type { FundusItemConfig } from '~~/server/utils/quiz/items'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { fundusMarksOf, loadFundusOverrides } from '~~/server/utils/quiz/fundus-marks'
-import { applyOverrides } from '~~/server/utils/quiz/results'
+import { assertStudentInReach, quizForStaff } from '~~/server/lib/quiz/access'
+import { assertCountingAttempt, storeMarkOverride } from '~~/server/lib/quiz/overrides'
+import { quizFundusAttemptView } from '~~/server/lib/quiz/fundus-attempt-view'
+import type { FundusItemConfig } from '~~/server/lib/quiz/items'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { fundusMarksOf, loadFundusOverrides } from '~~/server/lib/quiz/fundus-marks'
+import { applyOverrides } from '~~/server/lib/quiz/results'
 import type { FundusGradeResult } from '#shared/engine/fundus/result'
+import { countingFundusAttempt } from '~~/server/lib/data/attempts'
+import { quizItem } from '~~/server/lib/data/quiz-items'
+import type { QuizFundusAttemptView } from '#shared/types/quiz'
 
 // Change one criterion's mark on a fundus attempt that counts, with a reason;
 // audit-logged in the same transaction (as for double Maddox rod attempts).
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizFundusAttemptView> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, attemptId } = paramsAs(event, quizAttemptParams)
   const body = await readBodyAs(event, overrideBody)
@@ -21,13 +27,12 @@ export default defineEventHandler(async (event) => {
   if (!attempt) notFound('That attempt')
   // a tutor changes only their own cohorts' students' marks
   await assertStudentInReach(db, user, id, attempt.learner_id)
-  const latest = await db.selectFrom('fundus_attempts').select('id').where('quiz_id', '=', id).where('quiz_item_id', '=', attempt.quiz_item_id).where('learner_id', '=', attempt.learner_id).where('kind', '=', 'quiz')
-    .orderBy('id', 'desc').executeTakeFirstOrThrow()
+  const latest = await countingFundusAttempt(db, { quizId: id, itemId: attempt.quiz_item_id, learnerId: attempt.learner_id })
   assertCountingAttempt(attempt.id, latest.id)
   if (!KIND_CRITERIA.fundus.includes(body.criterion)) {
     badRequest([{ path: 'criterion', message: `A fundus item marks ${KIND_CRITERIA.fundus.join(' and ')}; it has no “${body.criterion}” mark.` }])
   }
-  const item = await db.selectFrom('quiz_items').selectAll().where('id', '=', attempt.quiz_item_id!).executeTakeFirstOrThrow()
+  const item = await quizItem(db, attempt.quiz_item_id!)
   const config = readItemConfig(item) as FundusItemConfig
   const overrides = (await loadFundusOverrides(db, id)).filter(o => o.attempt_id === attempt.id)
   const mark = applyOverrides(fundusMarksOf(JSON.parse(attempt.result_json) as FundusGradeResult, config.weights), overrides).find(m => m.criterion === body.criterion)!

@@ -1,19 +1,26 @@
-import type { GradeCriterion } from '~~/server/utils/engine/grader'
+// POST /api/quizzes/:id/items/:itemId/attempts (student): as for practice (`trial` in
+// patient-turns), or for a fundus item `{ eyes: { RE?, LE?: { disc, fovea, finding } }
+// }` with exactly the item's eyes (`400` naming `eyes.RE`… when one is missing, extra or
+// off the picture) → `201 { attemptId, submittedAt, attemptsLeft, message }` — no marks;
+// `409` after the deadline, the close time, finishing, the release of the results, or
+// the last allowed submission
+import type { GradeCriterion } from '~~/server/lib/engine/grader'
 import { practiceAttemptSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'
 import { fundusItemAttemptBody } from '#shared/schemas/fundus'
-import { submitFundusItem } from '~~/server/utils/quiz/fundus-sitting'
+import { submitFundusItem } from '~~/server/lib/quiz/fundus-sitting'
 import type { QuizAttemptReceipt } from '#shared/types/quiz'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
-import { assertSittingOpen } from '~~/server/utils/quiz/timing'
-import { recordAttempt } from '~~/server/utils/attempts'
-import { withCaseErrors } from '~~/server/utils/practice-http'
-import { withKeyLock } from '~~/server/utils/quiz/lock'
-import { regenerateCase } from '~~/server/utils/cases'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
+import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import { recordAttempt } from '~~/server/lib/practice/attempts'
+import { withCaseErrors } from '~~/server/lib/practice/http'
+import { withKeyLock } from '~~/server/lib/quiz/lock'
+import { regenerateCase } from '~~/server/lib/practice/cases'
+import { toPresentation } from '~~/server/lib/engine/presentation'
 import type { CaseRow } from '~~/db/schema'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 /** Whether the student was shown cover-test findings to interpret (the bench offers the step only then). */
 const hasCoverTest = (row: CaseRow) => !!toPresentation(regenerateCase(row), row.mode).coverTest

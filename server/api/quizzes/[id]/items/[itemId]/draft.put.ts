@@ -1,10 +1,15 @@
+// PUT /api/quizzes/:id/items/:itemId/draft (student): the bench (as for practice), or
+// for a fundus item `{ eyes: { RE?, LE?: { disc, fovea, finding } /* each may be null */
+// } }` → `{ savedAt }`; `409` with a message once the deadline has passed (what was
+// saved stays)
 import { benchDraftSchema } from '#shared/schemas/practice'
 import { fundusItemDraftBody, quizItemParams } from '#shared/schemas/quiz'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { saveFundusDraft } from '~~/server/utils/quiz/fundus-sitting'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
-import { assertSittingOpen } from '~~/server/utils/quiz/timing'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { saveFundusDraft } from '~~/server/lib/quiz/fundus-sitting'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
+import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Autosave, stored on the case row as the practice API stores it. Refused (409)
 // once the sitting has ended: what was saved before the deadline stays as it was.

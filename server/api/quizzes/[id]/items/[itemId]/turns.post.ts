@@ -1,12 +1,15 @@
+// POST /api/quizzes/:id/items/:itemId/turns (student): patient-turns: as for practice
+// (`409` on a fundus item)
 import type { PatientTurnsResult } from '#shared/engine/presentation'
 import { turnRequestSchema } from '#shared/schemas/practice'
 import { quizItemParams } from '#shared/schemas/quiz'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { quizCaseRow, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
-import { assertSittingOpen } from '~~/server/utils/quiz/timing'
-import { recordTurn } from '~~/server/utils/cases'
-import { withCaseErrors } from '~~/server/utils/practice-http'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
+import { assertSittingOpen } from '~~/server/lib/quiz/timing'
+import { recordTurn } from '~~/server/lib/practice/cases'
+import { withCaseErrors } from '~~/server/lib/practice/http'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Patient-turns: the patient turns the rods (stored as a numbered trial, exactly as
 // in practice, so the attempt can name the trial it read).

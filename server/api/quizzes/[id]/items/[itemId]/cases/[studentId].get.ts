@@ -1,12 +1,17 @@
+// GET /api/quizzes/:id/items/:itemId/cases/:studentId (manager (a tutor: their cohorts'
+// students)): exactly the patient that student gets on that item: `{ kind: 'dmr',
+// stored, seed, presentation, draft, truth }`, or for a fundus item `{ kind: 'fundus',
+// stored, seed, presentation \| photo, draft, reference, angles }`
+import { QUIZ_STAFF } from '#shared/auth/roles'
 import { quizStudentCaseParams } from '#shared/schemas/quiz'
-import { quizForStaff, quizReach, quizStudents } from '~~/server/utils/quiz/access'
-import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
-import { buildItemCase, readItemConfig } from '~~/server/utils/quiz/items'
-import { quizCaseRow, quizItemOf } from '~~/server/utils/quiz/sitting'
-import { regenerateCase } from '~~/server/utils/cases'
-import { fundusDraftOf, fundusItemPictures, fundusPicturesOfCase, referencePoints } from '~~/server/utils/quiz/fundus-item'
-import { revealTruth } from '~~/server/utils/engine/attempt'
-import { toPresentation } from '~~/server/utils/engine/presentation'
+import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
+import { buildItemCase, readItemConfig } from '~~/server/lib/quiz/items'
+import { quizCaseRow } from '~~/server/lib/quiz/sitting'
+import { regenerateCase } from '~~/server/lib/practice/cases'
+import { fundusDraftOf, fundusItemPictures, fundusPicturesOfCase, referencePoints } from '~~/server/lib/quiz/fundus-item'
+import { revealTruth } from '~~/server/lib/engine/attempt'
+import { toPresentation } from '~~/server/lib/engine/presentation'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 // Exactly what one student sees (or saw) on an item: the stored case if they have
 // opened it, else the case the quiz seed derives for them — the same patient.

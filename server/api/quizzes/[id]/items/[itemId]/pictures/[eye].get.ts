@@ -3,11 +3,12 @@
 // holds the picture's disc and fovea coordinates. Each student's URL draws their
 // own case; a photograph item has its own image route; never cached by shared caches.
 import { quizItemPictureParams } from '#shared/schemas/quiz'
-import { quizForStudent } from '~~/server/utils/quiz/access'
-import { readItemConfig } from '~~/server/utils/quiz/items'
-import { ensureQuizCase, quizItemOf, sittingOf } from '~~/server/utils/quiz/sitting'
-import { fundusItemPictures } from '~~/server/utils/quiz/fundus-item'
-import { renderFundusPng } from '~~/server/utils/fundus/render'
+import { quizForStudent } from '~~/server/lib/quiz/access'
+import { readItemConfig } from '~~/server/lib/quiz/items'
+import { ensureQuizCase, sittingOf } from '~~/server/lib/quiz/sitting'
+import { fundusItemPictures } from '~~/server/lib/quiz/fundus-item'
+import { renderFundusPng } from '~~/server/lib/fundus/render'
+import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'student')
