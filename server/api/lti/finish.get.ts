@@ -1,12 +1,12 @@
+// The second half of a launch, in the browser that started the login: its state cookie
+// must be here (the platform's cross-site POST could not carry it). Then the account,
+// the course and the resource link, and the person is signed in.
 import { accountFor, courseFor, joinCourseCohort, resourceLinkFor, type LaunchClaims } from '~~/server/lib/lti/accounts'
 import { CLAIM, DEEP_LINKING_REQUEST } from '~~/server/lib/lti/claims'
 import { nextPath } from '~~/server/lib/lti/flow'
 import { LtiRefusal, refusalPage } from '~~/server/lib/lti/html'
 import { STATE_COOKIE_PREFIX } from '~~/server/lib/lti/launch'
 
-// The second half of a launch, in the browser that started the login: its state cookie
-// must be here (the platform's cross-site POST could not carry it). Then the account,
-// the course and the resource link, and the person is signed in.
 export default defineEventHandler(async (event) => {
   const db = await useDb()
   try {

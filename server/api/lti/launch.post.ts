@@ -1,9 +1,9 @@
+// The platform posts the id_token here (form_post). Every check runs; a refusal is a
+// page and a 4xx. A verified launch goes on to /api/lti/finish in the same browser.
 import { LtiRefusal, refusalPage } from '~~/server/lib/lti/html'
 import { readForm } from '~~/server/lib/lti/flow'
 import { storeLaunch, verifyLaunch } from '~~/server/lib/lti/launch'
 
-// The platform posts the id_token here (form_post). Every check runs; a refusal is a
-// page and a 4xx. A verified launch goes on to /api/lti/finish in the same browser.
 export default defineEventHandler(async (event) => {
   const db = await useDb()
   try {

@@ -1,9 +1,9 @@
+// What the course and deep-linking pages need about the caller's own launch: the course,
+// whether it is linked to a cohort, and the cohorts the caller teaches.
 import { launchParam } from '#shared/schemas/lti'
 import { CLAIM } from '~~/server/lib/lti/claims'
 import { ownLaunch } from '~~/server/lib/lti/flow'
 
-// What the course and deep-linking pages need about the caller's own launch: the course,
-// whether it is linked to a cohort, and the cohorts the caller teaches.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)

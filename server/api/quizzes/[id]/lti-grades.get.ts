@@ -1,10 +1,10 @@
+// The quiz's scores sent to learning platforms (or waiting, with the last error): a tutor
+// sees their own cohorts' students.
 import { idParam } from '#shared/schemas/common'
 import { gradeLog } from '~~/server/lib/lti/grades'
 import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 
-// The quiz's scores sent to learning platforms (or waiting, with the last error): a tutor
-// sees their own cohorts' students.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)

@@ -1,7 +1,7 @@
-import { rotateToolKey, toolJwks } from '~~/server/lib/lti/keys'
-
 // Rotates the tool's signing key: the new key signs from now on; the older ones stay in
 // the published key set (platforms cache it) until they are retired (docs/lti.md, "Keys").
+import { rotateToolKey, toolJwks } from '~~/server/lib/lti/keys'
+
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')
   const db = await useDb()

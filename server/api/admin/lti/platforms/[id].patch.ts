@@ -1,8 +1,8 @@
+// Edits a learning platform, or disables it (launches and grade return stop; nothing is deleted).
 import { idParam } from '#shared/schemas/common'
 import { platformPatchBody } from '#shared/schemas/lti'
 import { platformView } from '~~/server/lib/lti/platforms'
 
-// Edits a learning platform, or disables it (launches and grade return stop; nothing is deleted).
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')
   const { id } = paramsAs(event, idParam)

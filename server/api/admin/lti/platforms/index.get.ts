@@ -1,6 +1,6 @@
+// Registered learning platforms, and the tool's configuration to copy into a platform.
 import { platformView, toolConfiguration } from '~~/server/lib/lti/platforms'
 
-// Registered learning platforms, and the tool's configuration to copy into a platform.
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   const db = await useDb()

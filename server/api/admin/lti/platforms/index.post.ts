@@ -1,7 +1,7 @@
+// Registers a learning platform (LTI 1.3): issuer, client id, deployments and its URLs.
 import { platformBody } from '#shared/schemas/lti'
 import { platformView } from '~~/server/lib/lti/platforms'
 
-// Registers a learning platform (LTI 1.3): issuer, client id, deployments and its URLs.
 export default defineEventHandler(async (event) => {
   const admin = await requireRole(event, 'admin')
   const body = await readBodyAs(event, platformBody)

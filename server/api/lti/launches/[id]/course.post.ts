@@ -1,10 +1,10 @@
+// A tutor launching from a new course links it to a cohort they teach, or to a new one
+// (they then teach it). Learners launching from the course later join that cohort.
 import { courseLinkBody, launchParam } from '#shared/schemas/lti'
 import { CLAIM } from '~~/server/lib/lti/claims'
 import { nextPath, ownLaunch } from '~~/server/lib/lti/flow'
 import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
 
-// A tutor launching from a new course links it to a cohort they teach, or to a new one
-// (they then teach it). Learners launching from the course later join that cohort.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)

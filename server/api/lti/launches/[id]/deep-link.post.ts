@@ -1,3 +1,6 @@
+// The tutor's choice on the deep-linking page (an HTML form, so the answer can post on to
+// the platform): the quiz goes back to the course as a resource link with a line item
+// (Deep Linking 2.0 §4.5), and the course's cohort is assigned the quiz.
 import { deepLinkForm, launchParam } from '#shared/schemas/lti'
 import { CLAIM, DEEP_LINKING_REQUEST } from '~~/server/lib/lti/claims'
 import { deepLinkingResponse } from '~~/server/lib/lti/deep-linking'
@@ -6,9 +9,6 @@ import { LtiRefusal, autoPostPage, refusalPage } from '~~/server/lib/lti/html'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { computeResults } from '~~/server/lib/quiz/results'
 
-// The tutor's choice on the deep-linking page (an HTML form, so the answer can post on to
-// the platform): the quiz goes back to the course as a resource link with a line item
-// (Deep Linking 2.0 §4.5), and the course's cohort is assigned the quiz.
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)
