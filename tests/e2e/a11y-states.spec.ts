@@ -156,11 +156,13 @@ test.describe('dialogs and menus while open', () => {
     await send.click()
     await expect(send).toHaveAttribute('aria-expanded', 'true')
     await expectNoViolations(page, 'send a practice set open')
-    const cohortSet = page.getByRole('button', { name: /practice set/i, expanded: false }).filter({ hasNotText: /^Send practice set to / })
-    if (await cohortSet.count()) {
-      await cohortSet.first().click()
-      await expectNoViolations(page, 'cohort practice set open')
-    }
+    // the cohort-wide set, offered once one cohort is chosen
+    await page.getByLabel('Cohort', { exact: true }).selectOption({ label: 'Kestrel cohort' })
+    await expect(page).toHaveURL(/cohortId=\d+/)
+    const cohortSet = page.getByRole('button', { name: 'Send a practice set to Kestrel cohort' })
+    await cohortSet.click()
+    await expect(cohortSet).toHaveAttribute('aria-expanded', 'true')
+    await expectNoViolations(page, 'cohort practice set open')
   })
 
   test('the compact menu on a narrow screen', async ({ page }) => {

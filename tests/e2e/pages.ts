@@ -158,17 +158,19 @@ async function fundusHandedIn(page: Page): Promise<{ quizId: number, attemptId: 
     const heron = cohorts.find(c => c.name === 'Heron cohort')!.id
     const soon = (m: number) => new Date(Date.now() + m * 60_000).toISOString()
     const quiz = await tutor.post('/api/quizzes', { headers, data: { title: 'Accessibility check: a fundus', opensAt: soon(-1), closesAt: soon(60), cohortIds: [heron] } })
-    expect(quiz.status()).toBe(201)
+    expect(quiz.status(), await quiz.text()).toBe(201)
     const quizId = (await quiz.json()).id as number
     const item = await tutor.post(`/api/quizzes/${quizId}/items`, { headers, data: { kind: 'fundus', prompt: 'Mark both fundi.', source: { type: 'engine', templateId: 'so-palsy-right-standard' } } })
-    expect(item.status()).toBe(201)
-    const itemId = (await item.json()).id as number
+    expect(item.status(), await item.text()).toBe(201)
+    // the route answers with the whole quiz; the new item is the last
+    const itemId = ((await item.json()).items as { id: number }[]).at(-1)!.id
     expect((await tutor.patch(`/api/quizzes/${quizId}`, { headers, data: { published: true } })).status()).toBe(200)
-    expect((await student.post(`/api/quizzes/${quizId}/start`, { headers })).status()).toBeLessThan(300)
+    const started = await student.post(`/api/quizzes/${quizId}/start`, { headers })
+    expect(started.status(), await started.text()).toBeLessThan(300)
     // marks anywhere on the picture (8 × 6 disc diameters): grading is not what is checked here
     const eye = { disc: { x: 5.2, y: 2.8 }, fovea: { x: 2.7, y: 3.1 }, finding: 'within-normal' }
     const sent = await student.post(`/api/quizzes/${quizId}/items/${itemId}/attempts`, { headers, data: { eyes: { RE: eye, LE: { ...eye, disc: { x: 2.8, y: 2.8 }, fovea: { x: 5.3, y: 3.1 } } } } })
-    expect(sent.status()).toBe(201)
+    expect(sent.status(), await sent.text()).toBe(201)
     const attemptId = (await sent.json()).attemptId as number
     expect((await tutor.patch(`/api/quizzes/${quizId}`, { headers, data: { closesAt: soon(-0.5) } })).status()).toBe(200)
     expect((await tutor.post(`/api/quizzes/${quizId}/release`, { headers })).status()).toBeLessThan(300)

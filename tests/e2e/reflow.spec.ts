@@ -31,7 +31,7 @@ for (const entry of PAGES) {
         const out: string[] = []
         for (const el of document.querySelectorAll<HTMLElement>('body *')) {
           const r = el.getBoundingClientRect()
-          if (r.right > limit + 1 && r.width > 0 && !el.closest('.overflow-x-auto, .overflow-auto')) {
+          if (r.right > limit + 1 && r.width > 0 && !el.parentElement?.closest('.overflow-x-auto, .overflow-auto')) {
             out.push(`${el.tagName.toLowerCase()}${el.id ? `#${el.id}` : ''}.${[...el.classList].slice(0, 4).join('.')} right=${Math.round(r.right)}`)
           }
         }
