@@ -378,3 +378,46 @@ test.describe('reduced motion', () => {
     expect(scroll).toBe('auto')
   })
 })
+
+test.describe('refused forms', () => {
+  /** After a refused submit, focus is on a field marked invalid whose description includes its shown error (WCAG 2.1 SC 3.3.1), or on the form's alert. */
+  async function expectFocusOnError(page: Page, what: string) {
+    const focused = page.locator(':focus')
+    await expect(focused, what).toHaveCount(1)
+    if (await focused.getAttribute('role') === 'alert') return
+    await expect(focused, what).toHaveAttribute('aria-invalid', 'true')
+    const ids = (await focused.getAttribute('aria-describedby') ?? '').split(/\s+/).filter(Boolean)
+    const errors = await Promise.all(ids.map(id => page.locator(`[id="${id}"].field-error`).count()))
+    expect(errors.some(n => n > 0), `${what}: the focused field is described by its error`).toBe(true)
+  }
+
+  test('forgotten password, cohorts, invitations, case templates, exact cases and photographs send focus to the first error', async ({ page }) => {
+    test.setTimeout(120_000)
+    await page.goto('/forgot')
+    await page.waitForLoadState('networkidle')
+    await page.getByRole('button', { name: 'Send reset link' }).click()
+    await expectFocusOnError(page, 'forgotten password')
+
+    await signIn(page, 'admin@cyclodial.test')
+    await page.goto('/admin/cohorts')
+    await page.waitForLoadState('networkidle')
+    await page.getByRole('button', { name: 'Create cohort' }).click()
+    await expectFocusOnError(page, 'new cohort')
+    await page.goto('/admin/users')
+    await page.waitForLoadState('networkidle')
+    await page.getByRole('button', { name: 'Send invitation' }).click()
+    await expectFocusOnError(page, 'invitation')
+    await page.getByRole('button', { name: 'Sign out', exact: true }).click()
+
+    await signIn(page, 'tutor@cyclodial.test')
+    await page.goto('/casebook')
+    await page.waitForLoadState('networkidle')
+    await page.getByRole('button', { name: 'New exact case' }).click()
+    await page.getByRole('button', { name: 'Save exact case' }).click()
+    await expectFocusOnError(page, 'exact case')
+    await page.goto('/fundus/photos')
+    await page.waitForLoadState('networkidle')
+    await page.getByRole('button', { name: 'Upload photograph' }).click()
+    await expectFocusOnError(page, 'photograph upload')
+  })
+})
