@@ -32,6 +32,7 @@ const NAV: Record<Role, NavItem[]> = {
     { to: '/admin/users', label: 'Users' },
     { to: '/admin/cohorts', label: 'Cohorts' },
     { to: '/admin/outbox', label: 'Outbox' },
+    { to: '/admin/learning-platforms', label: 'Learning platforms' },
     { to: '/admin/audit', label: 'Audit log' },
     { to: '/record-checker', label: 'Record checker' },
     { to: '/fundus/photos', label: 'Fundus photographs' },

@@ -1,11 +1,7 @@
 // Dates and durations on quiz pages. The server stores and enforces UTC; pages
-// show local time in British form and edit it through <input type="datetime-local">.
+// show local time (formatWhen in composables/formatDates.ts) and edit it through
+// <input type="datetime-local">.
 const pad = (n: number) => String(n).padStart(2, '0')
-
-export function formatWhen(iso: string | null | undefined): string {
-  if (!iso) return '—'
-  return new Date(iso).toLocaleString('en-GB', { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric', hour: '2-digit', minute: '2-digit' })
-}
 
 /** ISO → the value a datetime-local input shows (local time, minutes). */
 export function toLocalInput(iso: string | null | undefined): string {

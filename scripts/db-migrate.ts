@@ -1,17 +1,22 @@
-// npm run db:migrate — brings the SQLite file (NUXT_DB_PATH, default
-// .data/cyclodial.sqlite) up to the newest migration, printing each result.
-import { migrateToLatest, openDatabase } from '../db/open'
+// npm run db:migrate — brings the database up to the newest migration, printing
+// each result: PostgreSQL when NUXT_DATABASE_URL is set (postgres://…), otherwise
+// the SQLite file at NUXT_DB_PATH (default .data/cyclodial.sqlite).
+import { migrateToLatest, openConfiguredDatabase, withStartupLock } from '../db/open'
 
+const url = process.env.NUXT_DATABASE_URL || ''
 const path = process.env.NUXT_DB_PATH || '.data/cyclodial.sqlite'
-const db = openDatabase(path)
+const where = url ? 'the PostgreSQL database' : path
 try {
-  const results = await migrateToLatest(db, line => console.log(line))
-  console.log(results.length ? `${results.length} migration(s) applied to ${path}` : `${path} is up to date`)
+  const db = openConfiguredDatabase({ databaseUrl: url, dbPath: path })
+  try {
+    const results = await withStartupLock(db, locked => migrateToLatest(locked, line => console.log(line)))
+    console.log(results.length ? `${results.length} migration(s) applied to ${where}` : `${where} is up to date`)
+  }
+  finally {
+    await db.destroy()
+  }
 }
 catch (error) {
   console.error(`migration failed: ${error instanceof Error ? error.message : error}`)
   process.exitCode = 1
-}
-finally {
-  await db.destroy()
 }

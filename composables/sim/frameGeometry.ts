@@ -114,11 +114,14 @@ export type DialKeyAction = { kind: 'step', delta: number } | { kind: 'home' } |
 export function dialKeyAction(key: string, shift: boolean): DialKeyAction {
   const step = shift ? 5 : 1
   switch (key) {
+    // Left and right turn the rod the way the key points as seen on screen: → moves
+    // the rod's top end to the right (clockwise, so the figure falls), ← to the left
+    // (anticlockwise, the figure rises). Up and down raise and lower the figure.
     case 'ArrowUp':
-    case 'ArrowRight':
+    case 'ArrowLeft':
       return { kind: 'step', delta: step }
     case 'ArrowDown':
-    case 'ArrowLeft':
+    case 'ArrowRight':
       return { kind: 'step', delta: -step }
     case 'PageUp':
       return { kind: 'step', delta: 10 }

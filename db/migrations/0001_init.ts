@@ -1,10 +1,11 @@
 // Foundation tables: people, cohorts, invitations, password resets, audit log,
 // mail. Frozen in time: imports no app code. Portable column types only.
 import { type Kysely, sql } from 'kysely'
+import { idType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('users')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('email', 'varchar(254)', c => c.notNull().unique())
     .addColumn('name', 'varchar(120)', c => c.notNull())
     .addColumn('role', 'varchar(16)', c => c.notNull().check(sql`role in ('student','tutor','lecturer','admin')`))
@@ -17,7 +18,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('users_role').on('users').column('role').execute()
 
   await db.schema.createTable('cohorts')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('name', 'varchar(120)', c => c.notNull().unique())
     .addColumn('created_at', 'varchar(32)', c => c.notNull())
     .addColumn('updated_at', 'varchar(32)', c => c.notNull())
@@ -32,7 +33,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('cohort_members_user').on('cohort_members').column('user_id').execute()
 
   await db.schema.createTable('invitations')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('email', 'varchar(254)', c => c.notNull())
     .addColumn('role', 'varchar(16)', c => c.notNull())
     .addColumn('cohort_id', 'integer', c => c.references('cohorts.id').onDelete('set null'))
@@ -45,7 +46,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('invitations_email').on('invitations').column('email').execute()
 
   await db.schema.createTable('password_resets')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('user_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('token_hash', 'varchar(64)', c => c.notNull().unique())
     .addColumn('expires_at', 'varchar(32)', c => c.notNull())
@@ -54,7 +55,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .execute()
 
   await db.schema.createTable('audit_log')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('actor_id', 'integer', c => c.references('users.id').onDelete('set null'))
     .addColumn('action', 'varchar(64)', c => c.notNull())
     .addColumn('target_type', 'varchar(32)')
@@ -65,7 +66,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('audit_log_created').on('audit_log').column('created_at').execute()
 
   await db.schema.createTable('outbox')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('message_id', 'varchar(255)')
     .addColumn('from_address', 'varchar(320)', c => c.notNull())
     .addColumn('to_address', 'text', c => c.notNull())
@@ -76,7 +77,7 @@ export async function up(db: Kysely<any>): Promise<void> {
     .execute()
 
   await db.schema.createTable('mail_jobs')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('to_address', 'varchar(320)', c => c.notNull())
     .addColumn('subject', 'text', c => c.notNull())
     .addColumn('text_body', 'text', c => c.notNull())
@@ -91,7 +92,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('mail_jobs_due').on('mail_jobs').columns(['status', 'next_attempt_at']).execute()
 
   await db.schema.createTable('login_failures')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('email', 'varchar(254)', c => c.notNull())
     .addColumn('ip', 'varchar(64)', c => c.notNull())
     .addColumn('created_at', 'varchar(32)', c => c.notNull())

@@ -2,10 +2,11 @@
 // Attempts carry denormalised copies of who/what/when (cohort, condition,
 // template, quiz) so the slip-pattern review can aggregate in SQL without joins.
 import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('cases')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('owner_id', 'integer', c => c.references('users.id').onDelete('cascade'))
     .addColumn('purpose', 'varchar(16)', c => c.notNull())
     .addColumn('template_id', 'varchar(64)')
@@ -30,7 +31,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('cases_quiz').on('cases').columns(['quiz_id', 'quiz_item_id', 'owner_id']).execute()
 
   await db.schema.createTable('attempts')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('case_id', 'integer', c => c.notNull().references('cases.id').onDelete('cascade'))
     .addColumn('learner_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('cohort_id', 'integer')
@@ -54,17 +55,17 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('parsed_json', 'text', c => c.notNull())
     .addColumn('marks_json', 'text', c => c.notNull())
     .addColumn('interpretation_json', 'text')
-    .addColumn('score', 'real', c => c.notNull())
-    .addColumn('points_earned', 'real', c => c.notNull())
-    .addColumn('points_possible', 'real', c => c.notNull())
+    .addColumn('score', realType(db), c => c.notNull())
+    .addColumn('points_earned', realType(db), c => c.notNull())
+    .addColumn('points_possible', realType(db), c => c.notNull())
     .addColumn('slips_json', 'text', c => c.notNull())
     .addColumn('truth_json', 'text', c => c.notNull())
     .addColumn('re_true_direction', 'varchar(8)')
     .addColumn('re_recorded_direction', 'varchar(8)')
     .addColumn('le_true_direction', 'varchar(8)')
     .addColumn('le_recorded_direction', 'varchar(8)')
-    .addColumn('re_amount_error', 'real')
-    .addColumn('le_amount_error', 'real')
+    .addColumn('re_amount_error', realType(db))
+    .addColumn('le_amount_error', realType(db))
     .addColumn('started_at', 'varchar(32)')
     .addColumn('submitted_at', 'varchar(32)', c => c.notNull())
     .addColumn('duration_ms', 'integer')
@@ -75,7 +76,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('attempts_case').on('attempts').column('case_id').execute()
 
   await db.schema.createTable('attempt_slips')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('attempt_id', 'integer', c => c.notNull().references('attempts.id').onDelete('cascade'))
     .addColumn('learner_id', 'integer', c => c.notNull())
     .addColumn('cohort_id', 'integer')

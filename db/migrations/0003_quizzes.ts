@@ -2,15 +2,16 @@
 // items, cohorts assigned, each student's sitting, and mark overrides. Quiz
 // cases and attempts live in the tables of 0002 (purpose / kind 'quiz').
 import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('casebook_templates')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('owner_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('title', 'varchar(120)', c => c.notNull())
     .addColumn('template_id', 'varchar(64)', c => c.notNull())
     .addColumn('ranges_json', 'text', c => c.notNull())
-    .addColumn('tolerance', 'real', c => c.notNull())
+    .addColumn('tolerance', realType(db), c => c.notNull())
     .addColumn('notes', 'text')
     .addColumn('archived_at', 'varchar(32)')
     .addColumn('created_at', 'varchar(32)', c => c.notNull())
@@ -19,11 +20,11 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('casebook_templates_owner').on('casebook_templates').columns(['owner_id', 'archived_at']).execute()
 
   await db.schema.createTable('casebook_cases')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('owner_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('title', 'varchar(120)', c => c.notNull())
     .addColumn('spec_json', 'text', c => c.notNull())
-    .addColumn('tolerance', 'real', c => c.notNull())
+    .addColumn('tolerance', realType(db), c => c.notNull())
     .addColumn('archived_at', 'varchar(32)')
     .addColumn('created_at', 'varchar(32)', c => c.notNull())
     .addColumn('updated_at', 'varchar(32)', c => c.notNull())
@@ -31,7 +32,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('casebook_cases_owner').on('casebook_cases').columns(['owner_id', 'archived_at']).execute()
 
   await db.schema.createTable('quizzes')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('owner_id', 'integer', c => c.references('users.id').onDelete('set null'))
     .addColumn('title', 'varchar(120)', c => c.notNull())
     .addColumn('instructions', 'text', c => c.notNull().defaultTo(''))
@@ -53,7 +54,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('quizzes_owner').on('quizzes').column('owner_id').execute()
 
   await db.schema.createTable('quiz_items')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('quiz_id', 'integer', c => c.notNull().references('quizzes.id').onDelete('cascade'))
     .addColumn('position', 'integer', c => c.notNull())
     .addColumn('kind', 'varchar(16)', c => c.notNull())
@@ -73,7 +74,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('quiz_cohorts_cohort').on('quiz_cohorts').column('cohort_id').execute()
 
   await db.schema.createTable('quiz_sittings')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('quiz_id', 'integer', c => c.notNull().references('quizzes.id').onDelete('cascade'))
     .addColumn('student_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('started_at', 'varchar(32)', c => c.notNull())
@@ -83,12 +84,12 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('quiz_sittings_unique').on('quiz_sittings').columns(['quiz_id', 'student_id']).unique().execute()
 
   await db.schema.createTable('quiz_mark_overrides')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('attempt_id', 'integer', c => c.notNull().references('attempts.id').onDelete('cascade'))
     .addColumn('quiz_id', 'integer', c => c.notNull())
     .addColumn('criterion', 'varchar(32)', c => c.notNull())
-    .addColumn('previous_score', 'real', c => c.notNull())
-    .addColumn('score', 'real', c => c.notNull())
+    .addColumn('previous_score', realType(db), c => c.notNull())
+    .addColumn('score', realType(db), c => c.notNull())
     .addColumn('reason', 'text', c => c.notNull())
     .addColumn('actor_id', 'integer')
     .addColumn('created_at', 'varchar(32)', c => c.notNull())

@@ -8,10 +8,11 @@
 // touches the wide attempt rows (JSON of readings, marks, truth), and is ordered
 // so the GROUP BY needs no sort. DEVELOPERS.md lists which query uses which.
 import { type Kysely, sql } from 'kysely'
+import { idType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('practice_sets')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('created_by', 'integer', c => c.references('users.id').onDelete('set null'))
     .addColumn('cohort_id', 'integer', c => c.references('cohorts.id').onDelete('set null'))
     .addColumn('scope', 'varchar(16)', c => c.notNull())

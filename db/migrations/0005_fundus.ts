@@ -3,10 +3,11 @@
 // each photograph is shared with, and learners' disc–fovea measurements — on a
 // generated case's fundus or on an uploaded photograph.
 import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('fundus_photos')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('owner_id', 'integer', c => c.references('users.id').onDelete('set null'))
     .addColumn('title', 'varchar(120)', c => c.notNull())
     .addColumn('eye', 'varchar(2)', c => c.notNull())
@@ -16,11 +17,11 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('byte_size', 'integer', c => c.notNull())
     .addColumn('width', 'integer', c => c.notNull())
     .addColumn('height', 'integer', c => c.notNull())
-    .addColumn('disc_x', 'real')
-    .addColumn('disc_y', 'real')
-    .addColumn('fovea_x', 'real')
-    .addColumn('fovea_y', 'real')
-    .addColumn('reference_angle', 'real')
+    .addColumn('disc_x', realType(db))
+    .addColumn('disc_y', realType(db))
+    .addColumn('fovea_x', realType(db))
+    .addColumn('fovea_y', realType(db))
+    .addColumn('reference_angle', realType(db))
     .addColumn('marked_at', 'varchar(32)')
     .addColumn('created_at', 'varchar(32)', c => c.notNull())
     .addColumn('updated_at', 'varchar(32)', c => c.notNull())
@@ -35,7 +36,7 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('fundus_photo_cohorts_cohort').on('fundus_photo_cohorts').column('cohort_id').execute()
 
   await db.schema.createTable('fundus_attempts')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('learner_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
     .addColumn('cohort_id', 'integer')
     .addColumn('kind', 'varchar(16)', c => c.notNull())
@@ -46,9 +47,9 @@ export async function up(db: Kysely<any>): Promise<void> {
     .addColumn('fundus_version', 'integer')
     .addColumn('marks_json', 'text', c => c.notNull())
     .addColumn('result_json', 'text', c => c.notNull())
-    .addColumn('score', 'real', c => c.notNull())
-    .addColumn('re_angle', 'real')
-    .addColumn('le_angle', 'real')
+    .addColumn('score', realType(db), c => c.notNull())
+    .addColumn('re_angle', realType(db))
+    .addColumn('le_angle', realType(db))
     .addColumn('submitted_at', 'varchar(32)', c => c.notNull())
     .execute()
   await db.schema.createIndex('fundus_attempts_learner').on('fundus_attempts').columns(['learner_id', 'submitted_at']).execute()

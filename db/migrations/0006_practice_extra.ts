@@ -2,10 +2,11 @@
 // case reloads with every turn it had and an attempt can name the trial it read;
 // and the parts of a graded attempt that replay must show exactly as first shown.
 import type { Kysely } from 'kysely'
+import { idType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('case_turns')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('case_id', 'integer', c => c.notNull().references('cases.id').onDelete('cascade'))
     .addColumn('trial', 'integer', c => c.notNull())
     .addColumn('gaze', 'varchar(16)', c => c.notNull())

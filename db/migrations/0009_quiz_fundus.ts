@@ -3,6 +3,7 @@
 // a fundus attempt (quiz_mark_overrides points at `attempts`, the double Maddox rod
 // table, so fundus attempts need their own), and an index for results by quiz.
 import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
 
 export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createTable('quiz_fundus_drafts')
@@ -16,12 +17,12 @@ export async function up(db: Kysely<any>): Promise<void> {
   await db.schema.createIndex('quiz_fundus_drafts_quiz').on('quiz_fundus_drafts').column('quiz_id').execute()
 
   await db.schema.createTable('quiz_fundus_overrides')
-    .addColumn('id', 'integer', c => c.primaryKey())
+    .addColumn('id', idType(db), c => c.primaryKey())
     .addColumn('fundus_attempt_id', 'integer', c => c.notNull().references('fundus_attempts.id').onDelete('cascade'))
     .addColumn('quiz_id', 'integer', c => c.notNull())
     .addColumn('criterion', 'varchar(32)', c => c.notNull())
-    .addColumn('previous_score', 'real', c => c.notNull())
-    .addColumn('score', 'real', c => c.notNull())
+    .addColumn('previous_score', realType(db), c => c.notNull())
+    .addColumn('score', realType(db), c => c.notNull())
     .addColumn('reason', 'text', c => c.notNull())
     .addColumn('actor_id', 'integer')
     .addColumn('created_at', 'varchar(32)', c => c.notNull())

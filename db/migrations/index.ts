@@ -13,6 +13,8 @@ import * as m0008 from './0008_invitation_name'
 import * as m0009 from './0009_quiz_fundus'
 import * as m0010 from './0010_sessions'
 import * as m0012 from './0012_rule_swap_evidence'
+import * as m0013 from './0013_lti'
+import * as m0015 from './0015_shared_state'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
@@ -26,6 +28,8 @@ export const migrations: Record<string, Migration> = {
   '0009_quiz_fundus': m0009,
   '0010_sessions': m0010,
   '0012_rule_swap_evidence': m0012,
+  '0013_lti': m0013,
+  '0015_shared_state': m0015,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

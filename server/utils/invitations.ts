@@ -2,7 +2,7 @@ import type { H3Event } from 'h3'
 import type { Transaction } from 'kysely'
 import type { Database } from '~~/db/schema'
 import type { Role } from '#shared/auth/roles'
-import { ROLE_LABELS } from '#shared/auth/roles'
+import { invitationText } from '~~/server/lib/mail/invitation-text'
 
 export interface InviteInput { email: string, name?: string | null, role: Role, cohortId: number | null, invitedBy: number | null }
 
@@ -57,17 +57,7 @@ export async function mailInvitation(event: H3Event, input: InviteInput, token: 
   const { sent } = await sendMail({
     to: input.email,
     subject: 'You are invited to Cyclodial',
-    text: [
-      'Hello,',
-      '',
-      `You have been invited to Cyclodial as a ${ROLE_LABELS[input.role].toLowerCase()}${cohort ? ` in the ${cohort.name}` : ''}.`,
-      'Cyclodial is where you practise measuring and recording cyclotorsion with the double Maddox rod test on virtual patients.',
-      '',
-      `Open this link within 7 days to choose your name and password:`,
-      link,
-      '',
-      'The link works once. If you were not expecting it, you can ignore this message.',
-    ].join('\n'),
+    text: invitationText({ name: input.name, role: input.role, cohortName: cohort?.name, link }),
   })
   return { link, sent }
 }

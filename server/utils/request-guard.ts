@@ -16,6 +16,30 @@ const UPLOAD_ROUTES: { method: string, path: RegExp }[] = [
   { method: 'POST', path: /^\/api\/roster\/(?:preview|import)\/?$/ },
 ]
 
+/**
+ * LTI 1.3 form posts. `platform`: the learning platform's page posts these across
+ * sites (OIDC login initiation and the id_token form_post, LTI Core 1.3 §4.1): no
+ * Origin rule (the signed id_token, its nonce and the state cookie are the proof),
+ * and they carry no session. `site`: a Cyclodial page's own HTML form (so its answer
+ * may post on to the platform): the Origin rule holds. Both are URL-encoded forms of
+ * at most 64 KB.
+ */
+const LTI_FORM_ROUTES: { kind: 'platform' | 'site', path: RegExp }[] = [
+  { kind: 'platform', path: /^\/api\/lti\/(?:login|launch)\/?$/ },
+  { kind: 'site', path: /^\/api\/lti\/launches\/[A-Za-z0-9_-]+\/deep-link\/?$/ },
+]
+export const LTI_FORM_MAX_BYTES = 64 * 1024
+
+export function ltiFormRoute(method: string, path: string): 'platform' | 'site' | null {
+  if (method !== 'POST') return null
+  const bare = path.split('?')[0]!
+  return LTI_FORM_ROUTES.find(r => r.path.test(bare))?.kind ?? null
+}
+
+export function isFormContentType(value: string | undefined): boolean {
+  return (value ?? '').split(';')[0]!.trim().toLowerCase() === 'application/x-www-form-urlencoded'
+}
+
 export function isUploadRoute(method: string, path: string): boolean {
   const bare = path.split('?')[0]!
   return UPLOAD_ROUTES.some(r => r.method === method && r.path.test(bare))

@@ -8,7 +8,8 @@
 // Cheap: unsealing the cookie (PBKDF2-derived keys) costs about half a
 // millisecond of CPU, so the unsealed payload is cached per cookie value in a
 // bounded LRU; what can change (revocation, expiry, role, disabled) is read on
-// every request with one indexed read (sessions joined to users by primary key).
+// every request with one indexed read (sessions joined to users by primary key),
+// so every instance sees a revocation at once: only the unsealing is cached.
 import { randomBytes, randomUUID } from 'node:crypto'
 import type { H3Event } from 'h3'
 import { unsealSession } from 'h3'
@@ -79,15 +80,22 @@ let statement: { db: Kysely<Database>, get: (sid: string) => SessionRow | undefi
 
 /**
  * The session and its user in one indexed read (both by primary key). It runs on
- * every signed-in request, so it is one prepared statement on the SQLite handle
- * rather than a query Kysely compiles each time. (It shares Kysely's one
+ * every signed-in request, so on SQLite it is one prepared statement on the file's
+ * handle rather than a query Kysely compiles each time. (It shares Kysely's one
  * connection, so inside another request's open transaction it may see that
  * transaction's revocations a moment early; never a session that was not there.)
+ * On PostgreSQL it is the same read through the pool. Either way it is read from
+ * the database on every request, never cached in the process, so a sign-out or a
+ * revocation made through one instance ends the session on every instance at once.
  */
-function sessionRow(db: Kysely<Database>, sid: string): SessionRow | undefined {
+async function sessionRow(db: Kysely<Database>, sid: string): Promise<SessionRow | undefined> {
+  const raw = sqliteHandles.get(db)
+  if (!raw) {
+    return db.selectFrom('sessions as s').innerJoin('users as u', 'u.id', 's.user_id')
+      .select(['s.last_seen_at', 's.expires_at', 's.revoked_at', 'u.id', 'u.email', 'u.name', 'u.role', 'u.disabled'])
+      .where('s.id', '=', sid).executeTakeFirst() as Promise<SessionRow | undefined>
+  }
   if (statement?.db !== db) {
-    const raw = sqliteHandles.get(db)
-    if (!raw) throw new Error('No SQLite handle for the session check.')
     const prepared = raw.prepare(SESSION_SQL)
     statement = { db, get: (id: string) => prepared.get(id) as SessionRow | undefined }
   }
@@ -126,7 +134,7 @@ async function resolve(event: H3Event): Promise<ResolvedSession | null> {
   let resolved: ResolvedSession | null = null
   if (entry !== INVALID && typeof sid === 'string') {
     const db = await useDb()
-    const row = sessionRow(db, sid)
+    const row = await sessionRow(db, sid)
     const now = Date.now()
     if (row && !row.revoked_at && !row.disabled
       && Date.parse(row.expires_at) > now

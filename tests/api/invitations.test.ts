@@ -1,6 +1,6 @@
-import Database from 'better-sqlite3'
 import { describe, expect, inject, it } from 'vitest'
 import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
+import { readDb } from '../support/db'
 
 const baseURL = inject('baseURL')
 const dbPath = inject('dbPath')
@@ -11,6 +11,16 @@ async function cohortId(admin: Client, name: string): Promise<number> {
 }
 
 describe('invitations', () => {
+  it('greets the invited person by name when one was given (issue 13)', async () => {
+    const admin = await signedIn(baseURL, DEMO.admin)
+    const email = 'named.invitee@cyclodial.test'
+    const invited = await admin.post('/api/admin/invitations', { email, name: 'Tove Ashcombe', role: 'tutor', cohortId: null })
+    expect(invited.status).toBe(201)
+    const mail = await waitForMail(admin, email, /invited/i)
+    expect(mail.text.split('\n')[0]).toBe('Hello Tove Ashcombe,')
+    expect(mail.text).toContain('check your name and choose your password')
+  })
+
   it('runs end to end: invite, e-mail, accept, signed in with role and cohort', async () => {
     const admin = await signedIn(baseURL, DEMO.admin)
     const heron = await cohortId(admin, 'Heron cohort')
@@ -24,6 +34,8 @@ describe('invitations', () => {
     const link = linkIn(mail.text, '/invite')
     const token = link.split('/invite/')[1]!
     expect(link.startsWith(baseURL)).toBe(true)
+    // no name was given: a plain greeting
+    expect(mail.text.split('\n')[0]).toBe('Hello,')
 
     const guest = new Client(baseURL)
     const info = await guest.get(`/api/invitations/${token}`)
@@ -59,13 +71,13 @@ describe('invitations', () => {
     const mail = await waitForMail(admin, email, /invited/i)
     const token = linkIn(mail.text, '/invite').split('/invite/')[1]!
 
-    const db = new Database(dbPath)
-    db.prepare('update invitations set expires_at = ? where email = ?').run('2000-01-01T00:00:00.000Z', email)
+    const db = readDb(dbPath, { write: true })
+    db.run('update invitations set expires_at = ? where email = ?', '2000-01-01T00:00:00.000Z', email)
     db.close()
 
     const guest = new Client(baseURL)
-    const db2 = new Database(dbPath, { readonly: true })
-    expect(db2.prepare('select name from invitations where email = ?').get(email)).toEqual({ name: 'Ivo Lattimer' })
+    const db2 = readDb(dbPath)
+    expect(db2.get('select name from invitations where email = ?', email)).toEqual({ name: 'Ivo Lattimer' })
     db2.close()
     expect((await guest.get(`/api/invitations/${token}`)).status).toBe(410)
     const accept = await guest.post(`/api/invitations/${token}/accept`, { name: 'Too Late', password: 'a-long-enough-password' })

@@ -1,6 +1,6 @@
-import Database from 'better-sqlite3'
 import { describe, expect, inject, it } from 'vitest'
 import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
+import { readDb } from '../support/db'
 
 const baseURL = inject('baseURL')
 const dbPath = inject('dbPath')
@@ -36,8 +36,8 @@ describe('forgotten password', () => {
     await new Client(baseURL).post('/api/auth/forgot', { email })
     const mail = await waitForMail(admin, email, /reset/i)
     const token = linkIn(mail.text, '/reset').split('/reset/')[1]!
-    const db = new Database(dbPath)
-    db.prepare(`update password_resets set expires_at = ? where user_id = (select id from users where email = ?)`).run('2000-01-01T00:00:00.000Z', email)
+    const db = readDb(dbPath, { write: true })
+    db.run(`update password_resets set expires_at = ? where user_id = (select id from users where email = ?)`, '2000-01-01T00:00:00.000Z', email)
     db.close()
     const late = await new Client(baseURL).post('/api/auth/reset', { token, password: 'brand-new-password-42' })
     expect(late.status).toBe(410)

@@ -4,7 +4,7 @@
 // list, before/after), drill-down, replay, CSV and bad input.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Kysely } from 'kysely'
-import { openDatabase } from '../../db/open'
+import { openConfiguredDatabase } from '../../db/open'
 import type { Database } from '../../db/schema'
 import { generateCase } from '../../server/utils/engine/generator'
 import type { Client } from '../support/client'
@@ -26,7 +26,7 @@ const cohortId = (name: string) => read.get<{ id: number }>('SELECT id FROM coho
 const names = (items: { learner: { name: string } }[]) => items.map(i => i.learner.name)
 
 beforeAll(async () => {
-  write = openDatabase(dbPath)
+  write = openConfiguredDatabase({ databaseUrl: inject('databaseUrl'), dbPath })
   lecturer = await signedIn(baseURL, DEMO.lecturer)
   tutor = await signedIn(baseURL, DEMO.tutor)
   admin = await signedIn(baseURL, DEMO.admin)

@@ -2,10 +2,10 @@
 // time, whether or not the e-mail has an account (the mail is queued after the
 // answer), and sends at most a few reset e-mails per account and per address an hour.
 import { createServer, type Server, type Socket } from 'node:net'
-import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client } from '../support/client'
 import { freePort, startServer, type RunningServer } from '../support/server'
+import { readDb } from '../support/db'
 
 describe('forgotten password', () => {
   let server: RunningServer
@@ -51,8 +51,8 @@ describe('forgotten password', () => {
     for (let i = 0; i < 6; i++) replies.push(await timed(email))
     expect(new Set(replies.map(r => JSON.stringify(r.body))).size).toBe(1)
     await new Promise(r => setTimeout(r, 500))
-    const db = new Database(server.dbPath, { readonly: true })
-    const { n } = db.prepare(`select count(*) as n from password_resets where user_id = (select id from users where email = ?)`).get(email) as { n: number }
+    const db = readDb(server.dbPath)
+    const n = db.count(`select count(*) as n from password_resets where user_id = (select id from users where email = ?)`, email)
     db.close()
     expect(n).toBe(3)
   })
@@ -61,8 +61,8 @@ describe('forgotten password', () => {
     const emails = ['student@cyclodial.test', 'jory.feldane@cyclodial.test', 'priya.vellacott@cyclodial.test', 'oisin.marrable@cyclodial.test', 'wen.hallowby@cyclodial.test', 'adaeze.quillon@cyclodial.test', 'milo.strathearn@cyclodial.test', 'ines.calloway@cyclodial.test', 'rafe.tolliver@cyclodial.test', 'noor.bramblecote@cyclodial.test', 'tutor@cyclodial.test']
     for (const email of emails) expect((await timed(email)).status).toBe(200)
     await new Promise(r => setTimeout(r, 500))
-    const db = new Database(server.dbPath, { readonly: true })
-    const { n } = db.prepare(`select count(*) as n from password_resets`).get() as { n: number }
+    const db = readDb(server.dbPath)
+    const n = db.count(`select count(*) as n from password_resets`)
     db.close()
     // 1 (Kofi) + 3 (Freya) before; the address's limit is 10
     expect(n).toBe(10)

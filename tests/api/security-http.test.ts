@@ -2,12 +2,12 @@
 // the one CSV writer and one-line names, cross-site requests, production posture
 // (HSTS, weak session passwords, the demo seed's second flag, paged lists).
 import { request as httpRequest } from 'node:http'
-import Database from 'better-sqlite3'
 import Papa from 'papaparse'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { Client, DEMO, signedIn } from '../support/client'
 import { startServer, startUpExit } from '../support/server'
 import type { RunningServer } from '../support/server'
+import { readDb } from '../support/db'
 
 const baseURL = inject('baseURL')
 const dbPath = inject('dbPath')
@@ -147,13 +147,13 @@ describe('point 10: one CSV writer; one-line names', () => {
     expect(cohort.status).toBe(201)
     // names stored before names were checked (or by another tool): the writer must still defuse them
     const hostile = ['=HYPERLINK("http://x.invalid","y")\nBob', ' +SUM(1,2)', '@cmd', '\t-1+1', 'plain name', '-2']
-    const db = new Database(dbPath)
+    const db = readDb(dbPath, { write: true })
     const now = new Date().toISOString()
     try {
       hostile.forEach((name, i) => {
-        const id = db.prepare(`insert into users (email, name, role, password_hash, created_at, updated_at) values (?, ?, 'student', 'x', ?, ?)`)
-          .run(`csv.${i}.${Date.now()}@cyclodial.test`, name, now, now).lastInsertRowid
-        db.prepare('insert into cohort_members (cohort_id, user_id, created_at) values (?, ?, ?)').run(cohort.body.id, id, now)
+        const { id } = db.get<{ id: number }>(`insert into users (email, name, role, password_hash, created_at, updated_at) values (?, ?, 'student', 'x', ?, ?) returning id`,
+          `csv.${i}.${Date.now()}@cyclodial.test`, name, now, now)!
+        db.run('insert into cohort_members (cohort_id, user_id, created_at) values (?, ?, ?)', cohort.body.id, id, now)
       })
     }
     finally { db.close() }
@@ -282,8 +282,8 @@ describe('point 15: production posture', () => {
 
     it('is not seeded by NUXT_SEED_DEMO=1 alone, and the log says why', async () => {
       refused = await startServer({ env: { NUXT_SEED_DEMO: '1', NUXT_SEED_DEMO_IN_PRODUCTION: '', NUXT_MAIL_CATCHER: '0' } })
-      const db = new Database(refused.dbPath, { readonly: true })
-      expect(db.prepare('select count(*) as n from users').get()).toEqual({ n: 0 })
+      const db = readDb(refused.dbPath)
+      expect(db.get('select count(*) as n from users')).toEqual({ n: 0 })
       db.close()
       expect(refused.output()).toMatch(/NUXT_SEED_DEMO_IN_PRODUCTION/)
       const signIn = await new Client(refused.baseURL).post('/api/auth/login', { email: DEMO.admin, password: 'cyclodial-demo' })

@@ -4,11 +4,11 @@
 // absolute lifetimes end them too, and /api/_auth/session (added by
 // nuxt-auth-utils) follows the same rules.
 import { readFileSync } from 'node:fs'
-import Database from 'better-sqlite3'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, DEMO, linkIn, signedIn, waitForMail } from '../support/client'
 import { sealSession } from 'h3'
 import { startServer, TEST_SESSION_PASSWORD, type RunningServer } from '../support/server'
+import { readDb } from '../support/db'
 
 /** The raw cookie header a client sends: replaying it stands for a stolen or kept copy. */
 function cookieOf(client: Client): string {
@@ -52,8 +52,8 @@ describe('revocable sessions', () => {
     expect((await other.delete('/api/_auth/session')).status).toBe(200)
     expect((await asCookie(server.baseURL, otherKept)).status).toBe(401)
 
-    const db = new Database(server.dbPath, { readonly: true })
-    const rows = db.prepare(`select s.revoked_at from sessions s join users u on u.id = s.user_id where u.email = ?`).all(DEMO.lecturer) as { revoked_at: string | null }[]
+    const db = readDb(server.dbPath)
+    const rows = db.all<{ revoked_at: string | null }>(`select s.revoked_at from sessions s join users u on u.id = s.user_id where u.email = ?`, DEMO.lecturer)
     db.close()
     expect(rows.length).toBeGreaterThan(0)
     expect(rows.every(r => r.revoked_at)).toBe(true)

@@ -1,9 +1,9 @@
 // Start-up behaviour of the built server, each case on its own server process.
-import Database from 'better-sqlite3'
 import { SMTPServer } from 'smtp-server'
 import { describe, expect, it } from 'vitest'
 import { Client, DEMO } from '../support/client'
 import { freePort, startServer, startUpExit } from '../support/server'
+import { readDb } from '../support/db'
 
 describe('start-up', () => {
   it('refuses to start in production without a session password', async () => {
@@ -15,8 +15,8 @@ describe('start-up', () => {
   it('migrates and seeds a new database file when asked, and not otherwise', async () => {
     const seeded = await startServer({ seed: true })
     try {
-      const db = new Database(seeded.dbPath, { readonly: true })
-      const people = db.prepare('select role, count(*) as n from users group by role order by role').all()
+      const db = readDb(seeded.dbPath)
+      const people = db.all('select role, count(*) as n from users group by role order by role')
       db.close()
       expect(people).toEqual([
         { role: 'admin', n: 1 }, { role: 'lecturer', n: 1 }, { role: 'student', n: 12 }, { role: 'tutor', n: 2 },
@@ -26,9 +26,9 @@ describe('start-up', () => {
 
     const bare = await startServer({ seed: false })
     try {
-      const db = new Database(bare.dbPath, { readonly: true })
-      expect(db.prepare('select count(*) as n from users').get()).toEqual({ n: 0 })
-      expect(db.prepare(`select count(*) as n from kysely_migration`).get()).toMatchObject({ n: expect.any(Number) })
+      const db = readDb(bare.dbPath)
+      expect(db.get('select count(*) as n from users')).toEqual({ n: 0 })
+      expect(db.get(`select count(*) as n from kysely_migration`)).toMatchObject({ n: expect.any(Number) })
       db.close()
     }
     finally { await bare.stop() }
@@ -47,9 +47,9 @@ describe('start-up', () => {
       expect(invited.body.mailSent).toBe(false)
       expect(invited.body.message).toMatch(/will be retried/)
 
-      const db = new Database(server.dbPath, { readonly: true })
-      expect(db.prepare('select count(*) as n from invitations where email = ?').get('retry.me@cyclodial.test')).toEqual({ n: 1 })
-      expect(db.prepare('select status, attempts from mail_jobs where to_address = ?').get('retry.me@cyclodial.test')).toEqual({ status: 'pending', attempts: 1 })
+      const db = readDb(server.dbPath)
+      expect(db.get('select count(*) as n from invitations where email = ?', 'retry.me@cyclodial.test')).toEqual({ n: 1 })
+      expect(db.get('select status, attempts from mail_jobs where to_address = ?', 'retry.me@cyclodial.test')).toEqual({ status: 'pending', attempts: 1 })
 
       // The mail server comes back; the retry loop delivers the waiting message.
       smtp = new SMTPServer({
@@ -73,7 +73,7 @@ describe('start-up', () => {
       expect(received).toHaveLength(1)
       expect(received[0]).toMatch(/retry\.me@cyclodial\.test/)
       await new Promise(r => setTimeout(r, 300))
-      expect(db.prepare('select status from mail_jobs where to_address = ?').get('retry.me@cyclodial.test')).toEqual({ status: 'sent' })
+      expect(db.get('select status from mail_jobs where to_address = ?', 'retry.me@cyclodial.test')).toEqual({ status: 'sent' })
       db.close()
     }
     finally {

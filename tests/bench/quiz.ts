@@ -2,16 +2,24 @@
 // second to the BUILT server. Prints how many were stored (must be all 300), p50
 // and p99 latency of the submissions, the same burst on a trivial route for a floor,
 // and the server's peak memory (VmHWM from /proc). Never part of npm test.
+// With CYCLODIAL_TEST_PG_URL set (scripts/pg-cluster.sh start) it runs on a fresh
+// PostgreSQL database; BENCH_INSTANCES=2 then starts a second instance on the same
+// database and sends every other student's requests to it (one site, as behind a
+// load balancer).
 import { readFileSync, mkdtempSync, rmSync } from 'node:fs'
 import { cpus, tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { performance } from 'node:perf_hooks'
-import Database from 'better-sqlite3'
 import type { Client } from '../support/client'
 import { DEMO, signedIn } from '../support/client'
-import { startServer } from '../support/server'
+import { readDb } from '../support/db'
+import { testPgUrl } from '../support/pg'
+import { freePort, startServer, type RunningServer } from '../support/server'
 
 const STUDENTS = Number(process.env.BENCH_STUDENTS ?? 300)
+const INSTANCES = Number(process.env.BENCH_INSTANCES ?? 1)
+if (INSTANCES !== 1 && INSTANCES !== 2) throw new Error('BENCH_INSTANCES is 1 or 2')
+if (INSTANCES === 2 && !testPgUrl()) throw new Error('BENCH_INSTANCES=2 needs PostgreSQL (CYCLODIAL_TEST_PG_URL): one SQLite file belongs to one process')
 const quantile = (xs: number[], q: number) => {
   const s = [...xs].sort((a, b) => a - b)
   return s[Math.min(s.length - 1, Math.ceil(q * s.length) - 1)] ?? Number.NaN
@@ -28,23 +36,24 @@ async function inBatches<T>(items: T[], size: number, work: (item: T, i: number)
 
 const dir = mkdtempSync(join(tmpdir(), 'cyclodial-bench-quiz-'))
 const dbPath = join(dir, 'cyclodial.sqlite')
-const server = await startServer({ dbPath, env: { NUXT_MAIL_CATCHER: '0' } })
+const port = await freePort()
+const site = { NUXT_MAIL_CATCHER: '0', NUXT_PUBLIC_SITE_URL: `http://127.0.0.1:${port}` }
+const server = await startServer(testPgUrl() ? { port, env: site } : { dbPath, port, env: site })
+const servers: RunningServer[] = [server]
 const pid = server.process.pid!
 try {
-  console.log(`Cyclodial quiz benchmark — Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}`)
+  if (INSTANCES === 2) servers.push(await startServer({ databaseUrl: server.databaseUrl!, env: site }))
+  console.log(`Cyclodial quiz benchmark — Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 'CPU'}; ${server.databaseUrl ? 'PostgreSQL' : 'SQLite'}, ${INSTANCES} instance(s)`)
 
   // 300 invented students in a cohort of their own, sharing the demo password's hash
-  const db = new Database(dbPath)
+  const db = readDb(server.dbPath, { write: true })
   const now = new Date().toISOString()
-  const hash = (db.prepare('SELECT password_hash FROM users WHERE email = ?').get(DEMO.student) as { password_hash: string }).password_hash
-  const cohortId = Number(db.prepare('INSERT INTO cohorts (name, created_at, updated_at) VALUES (?, ?, ?)').run('Bench cohort', now, now).lastInsertRowid)
+  const hash = db.get<{ password_hash: string }>('SELECT password_hash FROM users WHERE email = ?', DEMO.student)!.password_hash
+  const cohortId = db.get<{ id: number }>('INSERT INTO cohorts (name, created_at, updated_at) VALUES (?, ?, ?) RETURNING id', 'Bench cohort', now, now)!.id
   const emails = Array.from({ length: STUDENTS }, (_, i) => `bench.student.${i + 1}@cyclodial.test`)
-  db.transaction(() => {
-    for (const [i, email] of emails.entries()) {
-      const id = db.prepare('INSERT INTO users (email, name, role, password_hash, disabled, created_at, updated_at) VALUES (?, ?, \'student\', ?, 0, ?, ?)').run(email, `Bench Student ${i + 1}`, hash, now, now).lastInsertRowid
-      db.prepare('INSERT INTO cohort_members (cohort_id, user_id, created_at) VALUES (?, ?, ?)').run(cohortId, id, now)
-    }
-  })()
+  const ids = db.all<{ id: number }>(`INSERT INTO users (email, name, role, password_hash, disabled, created_at, updated_at) VALUES ${emails.map(() => '(?, ?, \'student\', ?, 0, ?, ?)').join(', ')} RETURNING id`,
+    ...emails.flatMap((email, i) => [email, `Bench Student ${i + 1}`, hash, now, now])).map(r => r.id)
+  db.run(`INSERT INTO cohort_members (cohort_id, user_id, created_at) VALUES ${ids.map(() => '(?, ?, ?)').join(', ')}`, ...ids.flatMap(id => [cohortId, id, now]))
 
   const lecturer = await signedIn(server.baseURL, DEMO.lecturer)
   const quiz = (await lecturer.post('/api/quizzes', {
@@ -60,8 +69,9 @@ try {
   // each session signs in, starts the quiz, opens the item and autosaves once
   const t0 = performance.now()
   const sessions: { client: Client, body: Record<string, unknown> }[] = []
-  await inBatches(emails, 10, async (email) => {
-    const client = await signedIn(server.baseURL, email)
+  await inBatches(emails, 10, async (email, i) => {
+    // every other student through the second instance, when there is one (the session is shared)
+    const client = (await signedIn(server.baseURL, email)).copyTo(servers[i % servers.length]!.baseURL)
     await client.post(`/api/quizzes/${quiz.id}/start`)
     const got = (await client.get(`/api/quizzes/${quiz.id}/items/${item.id}`)).body
     const level = got.presentation.positions.primary.horizontalAt as { RE: number, LE: number }
@@ -92,8 +102,8 @@ try {
   const floor = await burst('GET /api/health (trivial route, floor)', s => s.client.get('/api/health'))
   const submit = await burst('POST …/items/:itemId/attempts', s => s.client.post(`/api/quizzes/${quiz.id}/items/${item.id}/attempts`, s.body))
   const after = memory(pid)
-  const stored = (db.prepare('SELECT count(*) AS n FROM attempts WHERE quiz_id = ? AND kind = \'quiz\'').get(quiz.id) as { n: number }).n
-  const slips = (db.prepare('SELECT count(*) AS n FROM attempt_slips WHERE quiz_id = ?').get(quiz.id) as { n: number }).n
+  const stored = db.count('SELECT count(*) AS n FROM attempts WHERE quiz_id = ? AND kind = \'quiz\'', quiz.id)
+  const slips = db.count('SELECT count(*) AS n FROM attempt_slips WHERE quiz_id = ?', quiz.id)
   db.close()
 
   console.log(`\n${STUDENTS} requests fired in the same instant (Node fetch, loopback):`)
@@ -102,10 +112,10 @@ try {
   }
   console.log(`  ratio p50 (submission ÷ trivial route): ${(submit.p50 / floor.p50).toFixed(1)}×`)
   console.log(`\nStored: ${stored} of ${STUDENTS} attempts (${slips} slips rows) — ${stored === STUDENTS ? 'all stored' : 'SOME LOST'}`)
-  console.log(`Server memory: RSS ${before.rssMb.toFixed(0)} MB before the bursts, ${after.rssMb.toFixed(0)} MB after; peak (VmHWM) ${after.hwmMb.toFixed(0)} MB over the whole run (${before.hwmMb.toFixed(0)} MB before the bursts).`)
+  console.log(`Server memory${INSTANCES === 2 ? ' (first instance)' : ''}: RSS ${before.rssMb.toFixed(0)} MB before the bursts, ${after.rssMb.toFixed(0)} MB after; peak (VmHWM) ${after.hwmMb.toFixed(0)} MB over the whole run (${before.hwmMb.toFixed(0)} MB before the bursts).`)
   if (stored !== STUDENTS || submit.ok !== STUDENTS) process.exitCode = 1
 }
 finally {
-  await server.stop()
+  for (const s of servers.reverse()) await s.stop()
   rmSync(dir, { recursive: true, force: true })
 }

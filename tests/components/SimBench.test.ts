@@ -155,11 +155,52 @@ describe('SimBench in learner-turns', () => {
     expect(body.interpretation).toEqual({ muscle: 'RSO' })
   })
 
-  it('says which marking its dial uses, and carries the simulation caution', async () => {
+  it('where the interpretation counts, submitting it incomplete asks once; practice sends at once', async () => {
+    fakeLayout(640)
+    const quiz = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    await quiz.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
+    const dialog = () => quiz.findAll('dialog').find(d => d.text().includes('The interpretation counts in this quiz; submit without it?'))!
+    expect(dialog().attributes('open')).toBeUndefined()
+    await quiz.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    await nextTick()
+    expect(quiz.emitted('submit')).toBeUndefined()
+    expect(dialog().attributes('open')).toBeDefined()
+    await quiz.findAll('button').find(b => b.text() === 'Submit without it')!.trigger('click')
+    expect(quiz.emitted('submit')).toHaveLength(1)
+    // answered in full: no question
+    const full = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    await full.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
+    await full.get('#interp-muscle').setValue('not-applicable')
+    await full.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
+    expect(full.emitted('submit')).toHaveLength(1)
+  })
+
+  it('says which marking its dial uses, and leaves the simulation caution to the page (said once, in the footer)', async () => {
     fakeLayout(640)
     const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
     expect(wrapper.text()).toContain('Cyclodial\'s dial marks the rod (cylinder) axis: 90° means no torsion')
-    expect(wrapper.find('[role="note"][aria-label="Educational simulation"]').exists()).toBe(true)
+    expect(wrapper.find('[role="note"][aria-label="Educational simulation"]').exists()).toBe(false)
+  })
+
+  it('shows How to read the dials beside the frame until it is closed, and keeps it closed', async () => {
+    fakeLayout(640)
+    localStorage.removeItem('cyclodial:dial-help-closed')
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    const help = wrapper.get('[data-testid="dial-help"]')
+    // the reading rule (clinical-facts.md: RE torsion = reading − 90, LE torsion = 90 − reading, + = excyclo)
+    expect(help.text()).toContain('Right eye: torsion = reading − 90.')
+    expect(help.text()).toContain('Left eye: torsion = 90 − reading.')
+    expect(help.text()).toContain('Record the eye, not the image.')
+    await help.get('button').trigger('click')
+    expect(wrapper.find('[data-testid="dial-help"]').exists()).toBe(false)
+    expect(localStorage.getItem('cyclodial:dial-help-closed')).toBe('true')
+    wrapper.unmount()
+    const again = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    await nextTick()
+    expect(again.find('[data-testid="dial-help"]').exists()).toBe(false)
+    await again.get('[data-testid="dial-help-open"]').trigger('click')
+    expect(again.find('[data-testid="dial-help"]').exists()).toBe(true)
+    localStorage.removeItem('cyclodial:dial-help-closed')
   })
 })
 

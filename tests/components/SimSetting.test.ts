@@ -2,6 +2,7 @@ import { afterEach, describe, expect, it, vi } from 'vitest'
 import { nextTick } from 'vue'
 import SimPrismTray from '~/components/sim/SimPrismTray.vue'
 import SimGazeFace from '~/components/sim/SimGazeFace.vue'
+import SimPatientView from '~/components/sim/SimPatientView.vue'
 import SimRecordPad from '~/components/sim/SimRecordPad.vue'
 import { parseRecord } from '#shared/engine/parser'
 import { engineCase } from '~~/tests/support/presentation'
@@ -30,14 +31,17 @@ describe('the prism tray', () => {
     expect(store.prisms).toEqual([])
   })
 
-  it('explains why a vertical prism helps when the lines lie on top of each other', async () => {
+  it('explains, beside the patient\'s words, why a vertical prism helps when the lines lie on top of each other', async () => {
     fakeLayout(640)
     // a patient with no vertical deviation: the two streaks overlap
     const { presentation } = engineCase('normal', 'setting-test-2')
     expect(Math.abs(presentation.positions.primary.alignment.vertical)).toBeLessThan(2)
-    const { wrapper, store } = await mountInBench(SimPrismTray, { presentation, mode: 'learner-turns', readScale: false })
+    const { wrapper, store } = await mountInBench(SimPatientView, { presentation, mode: 'learner-turns', readScale: false })
     expect(store.drawnView!.overlap).toBe(true)
-    expect(wrapper.get('[data-testid="prism-hint"]').text()).toContain('a vertical prism')
+    const hint = wrapper.get('[data-testid="prism-hint"]')
+    expect(hint.text()).toContain('a vertical prism')
+    // the advice follows the patient's words directly, inside the patient's view
+    expect(hint.element.previousElementSibling?.getAttribute('data-testid')).toBe('patient-words')
     store.addPrism({ eye: 'LE', power: 6, base: 'up' })
     await nextTick()
     expect(store.drawnView!.overlap).toBe(false)

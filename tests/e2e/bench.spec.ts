@@ -114,10 +114,10 @@ async function expectFullMarks(page: Page, submitted: Response) {
   expect(result.score).toBe(1)
   expect(result.slips).toEqual([])
   // every criterion marked in full, as the server's engine graded it
-  const rows = page.getByRole('table', { name: 'Marks per criterion' }).locator('tbody tr')
+  const rows = page.getByTestId('feedback').getByRole('table', { name: 'Marks by criterion' }).first().locator('tbody tr')
   await expect(rows).toHaveCount(result.marks.length)
   for (const m of result.marks) {
-    await expect(page.locator(`tr[data-criterion="${m.criterion}"]`)).toContainText(`${m.weight}/${m.weight}`)
+    await expect(page.locator(`tr[data-criterion="${m.criterion}"]`)).toContainText(`${m.weight} of ${m.weight}`)
   }
   await expect(page.getByTestId('model-record')).toHaveText(result.modelRecord)
 }
@@ -271,8 +271,9 @@ test.describe('the bench', () => {
     const turn = await (await answered).json()
     await expect(page.getByTestId('active-trial')).toContainText('Trial 1')
     await expect(page.getByTestId('patient-words')).toContainText(turn.words.text)
-    // no figure on screen: the learner reads the engraved scale
-    await expect(page.getByTestId('readout-RE')).toHaveText(/read the scale/)
+    // no figure on screen: the learner reads the engraved scale and types it in the box under that dial
+    await expect(page.getByTestId('readout-RE')).toHaveText('Your reading, right-eye scale (°)')
+    await expect(page.getByTestId('readout-RE').locator('input')).toHaveValue('')
     await page.screenshot({ path: 'test-results/screenshots/bench-tablet-patient-turns.png', fullPage: true })
     // the frame and the patient's view sit one above the other without overlapping
     const frame = await page.getByRole('figure', { name: 'Trial frame' }).boundingBox()
@@ -288,7 +289,7 @@ test.describe('the bench', () => {
     const sent = JSON.parse((await submitted).request().postData()!)
     expect(sent).toMatchObject({ trial: turn.trial, readings: turn.readings })
     const result = await (await submitted).json()
-    await expect(page.locator('tr[data-criterion="measurement"]')).toContainText('2/2')
+    await expect(page.locator('tr[data-criterion="measurement"]')).toContainText('2 of 2')
     await expect(page.getByTestId('score')).toHaveText(`${Math.round(result.score * 100)}%`)
   })
 

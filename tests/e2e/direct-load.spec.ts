@@ -39,6 +39,7 @@ const STAFF_QUIZ_PAGES: Route[] = [
   { path: '/quizzes', heading: /^Quizzes$/ },
   { path: '/quizzes/:quiz', heading: /^Week 3: writing the record$/ },
   { path: '/quizzes/:quiz/results', heading: /^Results: Week 3: writing the record$/ },
+  { path: '/quizzes/:quiz/platform-marks', heading: /^Marks sent to learning platforms: Week 3: writing the record$/ },
   { path: '/quizzes/:quiz/attempts/:attempt', heading: /· item \d+$/ },
   // blank on a direct link before: the cases were fetched without the session cookie
   { path: '/quizzes/:quiz/students/:student', heading: /: the patients of “Week 3: writing the record”$/ },
@@ -79,6 +80,7 @@ const ROLES: { who: string, email: string, ids: (r: APIRequestContext) => Promis
       { path: '/admin/users', heading: /^Users$/ },
       { path: '/admin/cohorts', heading: /./ },
       { path: '/admin/audit', heading: /./ },
+      { path: '/admin/learning-platforms', heading: /^Learning platforms$/ },
       { path: '/admin/outbox', heading: /./ },
       { path: '/quizzes/:quiz/results', heading: /^Results: Week 3: writing the record$/ },
       { path: '/quizzes/:quiz/students/:student', heading: /: the patients of “Week 3: writing the record”$/ },

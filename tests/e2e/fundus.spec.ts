@@ -24,9 +24,10 @@ test('a student marks both eyes of a generated case precisely, by pointer, touch
   const caseId = (await started.json()).id as number
   // from the bench, beside the trial frame
   await page.goto(`/practice/${caseId}`)
-  await page.getByRole('main').getByRole('link', { name: 'Fundus photographs' }).click()
+  await page.getByRole('main').getByRole('link', { name: 'Drawn fundus' }).click()
   await expect(page).toHaveURL(new RegExp(`/fundus/cases/${caseId}$`))
-  await expect(page.getByRole('heading', { level: 1, name: 'Fundus photographs' })).toBeVisible()
+  // a case's fundus is drawn by Cyclodial, never called a photograph (issue 13, point 10)
+  await expect(page.getByRole('heading', { level: 1, name: 'Drawn fundus' })).toBeVisible()
   const view = await (await page.request.get(`/api/fundus/cases/${caseId}`)).json() as CaseFundusView
 
   for (const eye of ['RE', 'LE'] as Eye[]) {
@@ -67,7 +68,9 @@ test('a student marks both eyes of a generated case precisely, by pointer, touch
   await expect(result.getByText(/Normal range/)).toBeVisible()
   await expect(result.getByText(/1684-9/).first()).toBeVisible()
   await expect(result.getByText(/Record this patient's double Maddox rod result/)).toBeVisible()
-  await expect(result.getByRole('note', { name: 'Educational simulation' })).toBeVisible()
+  // the caution is said once, in the page's footer
+  await expect(page.getByRole('note', { name: 'Educational simulation' })).toHaveCount(1)
+  await expect(page.getByRole('contentinfo').getByRole('note', { name: 'Educational simulation' })).toContainText('drawn fundi are simulated')
   await page.screenshot({ path: 'test-results/screenshots/fundus-case-result.png', fullPage: true })
 })
 

@@ -6,6 +6,7 @@
 import { expect, request, type Page } from '@playwright/test'
 import { syntheticPng } from '../support/fundus'
 import { DEMO_PASSWORD, sameOrigin } from './helpers'
+import { linkCourse, registeredPlatform, tutorDeepLinkLaunch } from './lti-helpers'
 
 export type Who = 'signed-out' | 'student' | 'tutor' | 'lecturer' | 'admin'
 
@@ -183,6 +184,21 @@ async function fundusHandedIn(page: Page): Promise<{ quizId: number, attemptId: 
   }
 }
 
+/**
+ * A tutor's first launch from a practice learning platform's course (the platform runs in
+ * the test process; the launch replaces the demo tutor's session with the platform's tutor).
+ */
+async function ltiCoursePage(page: Page): Promise<string> {
+  const platform = await registeredPlatform(new URL(page.url()).origin, `Accessibility course ${Date.now()}`)
+  return tutorDeepLinkLaunch(page, platform)
+}
+
+/** The same, with the course linked to a new cohort: the page that offers quizzes for the course. */
+async function ltiDeepLinkPage(page: Page): Promise<string> {
+  const course = await ltiCoursePage(page)
+  return linkCourse(page, course, `Accessibility cohort ${Date.now()}`)
+}
+
 const bench = async (page: Page) => {
   await expect(page.getByRole('heading', { level: 1 })).toBeVisible()
   await page.waitForLoadState('networkidle')
@@ -228,6 +244,9 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/roster.vue', name: 'roster', path: '/roster', as: 'tutor' },
   { file: 'pages/record-checker.vue', name: 'record checker', path: '/record-checker', as: 'tutor' },
   { file: 'pages/practice/index.vue', name: 'practice', path: '/practice', as: 'tutor' },
+  { file: 'pages/quizzes/[id]/platform-marks.vue', name: 'marks sent to learning platforms', path: async p => (await firstLink(p, '/quizzes', /^\/quizzes\/\d+\/results$/)).replace(/\/results$/, '/platform-marks'), as: 'tutor' },
+  { file: 'pages/lti/course.vue', name: 'link a learning-platform course to a cohort', path: ltiCoursePage, as: 'tutor' },
+  { file: 'pages/lti/deep-link.vue', name: 'add a quiz to a learning-platform course', path: ltiDeepLinkPage, as: 'tutor' },
 
   // lecturer
   { file: 'pages/lecturer/index.vue', name: 'lecturer home', path: '/lecturer', as: 'lecturer' },
@@ -244,6 +263,7 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/admin/cohorts.vue', name: 'cohorts', path: '/admin/cohorts', as: 'admin' },
   { file: 'pages/admin/outbox.vue', name: 'outbox', path: '/admin/outbox', as: 'admin' },
   { file: 'pages/admin/audit.vue', name: 'audit log', path: '/admin/audit', as: 'admin' },
+  { file: 'pages/admin/learning-platforms.vue', name: 'learning platforms', path: '/admin/learning-platforms', as: 'admin' },
   { file: 'pages/quizzes/index.vue', name: 'quizzes', path: '/quizzes', as: 'admin' },
   { file: 'pages/roster.vue', name: 'roster', path: '/roster', as: 'admin' },
   { file: 'pages/record-checker.vue', name: 'record checker', path: '/record-checker', as: 'admin' },

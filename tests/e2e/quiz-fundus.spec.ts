@@ -114,5 +114,7 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   await tutor.getByRole('link', { name: /Adaeze Quillon, item 1:/ }).click()
   await expect(tutor).toHaveURL(/\/fundus-attempts\/\d+$/)
   await expect(tutor.getByRole('heading', { level: 1, name: /Adaeze Quillon · item 1/ })).toBeVisible()
-  await expect(tutor.getByRole('cell', { name: 'Disc–fovea angle', exact: true })).toBeVisible()
+  // the marks sheet names each criterion in words, as a row heading, once on the page
+  await expect(tutor.getByRole('rowheader', { name: 'Disc–fovea angle', exact: true })).toHaveCount(1)
+  await expect(tutor.getByTestId('marks-sheet')).toHaveCount(1)
 })

@@ -23,19 +23,19 @@ test('a tutor checks a written record against a known finding', async ({ page })
   await expect(page.getByTestId('check-read-as')).toContainText('RE 10° incyclo')
   await page.getByRole('button', { name: 'Check record' }).click()
 
-  await expect(page.getByTestId('check-slips')).toContainText('Direction reversed — right eye')
+  await expect(page.getByTestId('check-result').getByTestId('slips')).toContainText('Direction reversed — right eye')
   await expect(page.getByTestId('check-model')).toHaveText('DMR, near, primary position: RE 10° excyclotorsion, LE no torsion.')
   // a reversed direction is a critical slip (domain.md §5.2): the cap is said beside the marks
   await expect(page.getByTestId('marks-cap')).toContainText('This record would mislead the next clinician')
   await expect(page.getByTestId('marks-cap')).toContainText('Capped at 50 %')
-  await expect(page.getByTestId('check-score')).toContainText('50%')
+  await expect(page.getByTestId('check-result').getByTestId('score')).toHaveText('50%')
   await page.screenshot({ path: 'test-results/screenshots/record-checker.png', fullPage: true })
 
   // the model record gets full marks
   await page.getByLabel('Written record').fill('DMR, near, primary position: RE 10° excyclotorsion, LE no torsion.')
   await page.getByRole('button', { name: 'Check record' }).click()
-  await expect(page.getByTestId('check-score')).toContainText('100%')
-  await expect(page.getByText('No recording slips.')).toBeVisible()
+  await expect(page.getByTestId('check-result').getByTestId('score')).toHaveText('100%')
+  await expect(page.getByTestId('check-result').getByTestId('no-slips')).toBeVisible()
   await expect(page.getByTestId('marks-cap')).toHaveCount(0)
 })
 

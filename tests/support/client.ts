@@ -52,6 +52,17 @@ export class Client {
     return { status: res.status, body: body as T, headers: res.headers }
   }
 
+  /**
+   * The same browser talking to another instance behind the load balancer: a new
+   * client on `baseURL` with a COPY of this one's cookies (later changes to either
+   * jar stay in that jar), sending the same site Origin.
+   */
+  copyTo(baseURL: string): Client {
+    const other = new Client(baseURL, this.siteOrigin ?? new URL(this.baseURL).origin)
+    for (const [k, v] of this.cookies) other.cookies.set(k, v)
+    return other
+  }
+
   get<T = any>(path: string) { return this.request<T>('GET', path) }
   post<T = any>(path: string, body?: unknown) { return this.request<T>('POST', path, body) }
   patch<T = any>(path: string, body?: unknown) { return this.request<T>('PATCH', path, body) }

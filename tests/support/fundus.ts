@@ -1,20 +1,9 @@
 // Test helpers for the fundus features: practice cases through the practice API,
-// row counts read from the test server's SQLite file, and small synthetic fundus
+// row counts read from the test server's database, and small synthetic fundus
 // photographs drawn with sharp, with a known disc centre and fovea.
-import Database from 'better-sqlite3'
 import sharp from 'sharp'
 import type { Client } from './client'
-
-function withDb<T>(dbPath: string, work: (db: Database.Database) => T): T {
-  const db = new Database(dbPath)
-  db.pragma('busy_timeout = 5000')
-  try {
-    return work(db)
-  }
-  finally {
-    db.close()
-  }
-}
+import { readDb } from './db'
 
 /** Start a practice case through the practice API, as a learner would. */
 export async function startPracticeCase(client: Client, template: string, difficulty: 'standard' | 'challenging', seed: string): Promise<number> {
@@ -30,7 +19,13 @@ export async function recordDmr(client: Client, caseId: number): Promise<void> {
 }
 
 export function countRows(dbPath: string, table: 'fundus_photos' | 'fundus_attempts' | 'fundus_photo_cohorts'): number {
-  return withDb(dbPath, db => (db.prepare(`select count(*) as n from ${table}`).get() as { n: number }).n)
+  const db = readDb(dbPath)
+  try {
+    return db.count(`select count(*) as n from ${table}`)
+  }
+  finally {
+    db.close()
+  }
 }
 
 export interface SyntheticPhoto {

@@ -1,20 +1,29 @@
 // Starts the BUILT server (.output) on a free port with a fresh SQLite file in
 // a temporary folder, the demo school seeded and the mail catcher on. Used by
-// the API tests, the end-to-end tests and the benchmarks.
+// the API tests, the end-to-end tests and the benchmarks. With
+// CYCLODIAL_TEST_PG_URL set (npm run test:api:pg), a fresh PostgreSQL database
+// on that cluster instead (tests/support/pg.ts); pass `databaseUrl` to share one.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { existsSync, mkdtempSync, rmSync } from 'node:fs'
 import { createServer } from 'node:net'
 import { tmpdir } from 'node:os'
 import { join, resolve } from 'node:path'
+import { createTestDatabase, testPgUrl, type TestDatabase } from './pg'
 
 export interface RunningServer {
   baseURL: string
   dbPath: string
+  /** The PostgreSQL database this server uses (PostgreSQL tier), else null. */
+  databaseUrl: string | null
   dir: string
   process: ChildProcess
   output: () => string
   stop: () => Promise<void>
 }
+
+/** NUXT_DB_PATH → the PostgreSQL database of a server started in this process (PostgreSQL tier). */
+const databaseUrls = new Map<string, string>()
+export const databaseUrlFor = (dbPath: string): string | undefined => databaseUrls.get(dbPath)
 
 export const TEST_SESSION_PASSWORD = 'test-only-session-password-0123456789abcdef'
 
@@ -34,6 +43,8 @@ export function freePort(): Promise<number> {
 export interface StartOptions {
   env?: Record<string, string>
   dbPath?: string
+  /** Use this PostgreSQL database (kept when the server stops), e.g. for a second instance. */
+  databaseUrl?: string
   seed?: boolean
   port?: number
 }
@@ -45,6 +56,11 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const dbPath = options.dbPath ?? join(dir, 'cyclodial.sqlite')
   const port = options.port ?? await freePort()
   const mailPort = await freePort()
+  const pgAdmin = testPgUrl()
+  let created: TestDatabase | null = null
+  if (!options.databaseUrl && !options.dbPath && pgAdmin) created = await createTestDatabase(pgAdmin)
+  const databaseUrl = options.databaseUrl ?? created?.url ?? null
+  if (databaseUrl) databaseUrls.set(dbPath, databaseUrl)
   let log = ''
   const env: Record<string, string | undefined> = {
     ...process.env,
@@ -52,6 +68,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
     HOST: '127.0.0.1',
     PORT: String(port),
     NUXT_DB_PATH: dbPath,
+    NUXT_DATABASE_URL: databaseUrl ?? '',
     NUXT_SEED_DEMO: options.seed === false ? '0' : '1',
     // the built server runs as production, which seeds the demo only when asked twice
     NUXT_SEED_DEMO_IN_PRODUCTION: options.seed === false ? '0' : '1',
@@ -76,7 +93,10 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
   const baseURL = `http://127.0.0.1:${port}`
   const deadline = Date.now() + 30_000
   for (;;) {
-    if (child.exitCode !== null) throw new Error(`server exited (${child.exitCode}):\n${log}`)
+    if (child.exitCode !== null) {
+      await created?.drop().catch(() => {})
+      throw new Error(`server exited (${child.exitCode}):\n${log}`)
+    }
     try {
       // Ready once the database is migrated (and seeded), and the mail catcher listens.
       const res = await fetch(`${baseURL}/api/health`)
@@ -84,13 +104,18 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
       if (res.ok && catcherReady) break
     }
     catch { /* not listening yet */ }
-    if (Date.now() > deadline) throw new Error(`server did not start within 30 s:\n${log}`)
+    if (Date.now() > deadline) {
+      child.kill('SIGKILL')
+      await created?.drop().catch(() => {})
+      throw new Error(`server did not start within 30 s:\n${log}`)
+    }
     await new Promise(r => setTimeout(r, 150))
   }
 
   return {
     baseURL,
     dbPath,
+    databaseUrl,
     dir,
     process: child,
     output: () => log,
@@ -102,6 +127,7 @@ export async function startServer(options: StartOptions = {}): Promise<RunningSe
         if (child.exitCode === null) child.kill('SIGKILL')
       }
       if (!options.dbPath) rmSync(dir, { recursive: true, force: true })
+      await created?.drop().catch(() => {})
     },
   }
 }

@@ -1,3 +1,4 @@
+import { lockForTransaction } from '~~/db/dialect'
 import { forgotBody } from '#shared/schemas/auth'
 
 // Always the same answer, in the same time, whether or not the e-mail has an
@@ -16,6 +17,10 @@ async function sendResetLink(email: string, ip: string): Promise<void> {
   const now = nowIso()
   const hourAgo = new Date(Date.now() - 3_600_000).toISOString()
   const issued = await db.transaction().execute(async (trx) => {
+    // Count-then-insert must not race on PostgreSQL: hold the address's and the
+    // account's locks (always in this order) until the transaction ends.
+    await lockForTransaction(trx, `reset ip ${ip}`)
+    await lockForTransaction(trx, `reset user ${user.id}`)
     const [forAccount, forAddress] = await Promise.all([
       trx.selectFrom('password_resets').select(eb => eb.fn.countAll<number>().as('n'))
         .where('user_id', '=', user.id).where('created_at', '>', hourAgo).executeTakeFirstOrThrow(),

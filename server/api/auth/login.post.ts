@@ -45,7 +45,7 @@ export default defineEventHandler(async (event) => {
     return { user: sessionUser, home: homeFor(user.role) }
   }
   finally {
-    settleLoginAttempt(ip)
+    await settleLoginAttempt(db, throttle.attemptId)
   }
 })
 

@@ -6,7 +6,7 @@
 
 import type { SessionUserData } from '#shared/auth/roles'
 import type { Kysely } from 'kysely'
-import { sql } from 'kysely'
+import { jsonNumber, jsonText } from '~~/db/dialect'
 import type { Database, FundusPhotoRow } from '~~/db/schema'
 import { feedbackReleased } from '../quiz/timing'
 
@@ -26,9 +26,9 @@ export async function photosHeldForQuiz(db: Kysely<Database>, user: SessionUserD
   if (user.role !== 'student') return new Set()
   const rows = await db.selectFrom('quiz_items as qi')
     .innerJoin('quizzes as q', 'q.id', 'qi.quiz_id')
-    .select([sql<number>`json_extract(qi.config_json, '$.source.id')`.as('photoId'), 'q.released_at', 'q.hold_feedback', 'q.closes_at'])
+    .select([jsonNumber(db, 'qi.config_json', '$.source.id').as('photoId'), 'q.released_at', 'q.hold_feedback', 'q.closes_at'])
     .where('qi.kind', '=', 'fundus')
-    .where(sql<string>`json_extract(qi.config_json, '$.source.type')`, '=', 'photo')
+    .where(jsonText(db, 'qi.config_json', '$.source.type'), '=', 'photo')
     .where('q.published_at', 'is not', null).where('q.archived_at', 'is', null)
     .where('q.id', 'in', eb => eb.selectFrom('quiz_cohorts as qc').innerJoin('cohort_members as m', 'm.cohort_id', 'qc.cohort_id').select('qc.quiz_id').where('m.user_id', '=', user.id))
     .execute()
@@ -64,8 +64,8 @@ export async function fundusPhotoFor(user: SessionUserData, id: number): Promise
 /** Quiz items whose source is this photograph (`config_json.source`, see server/utils/quiz/items.ts). */
 export const photoItemsQuery = (db: Kysely<Database>, photoId: number) => db.selectFrom('quiz_items as qi')
   .where('qi.kind', '=', 'fundus')
-  .where(sql<string>`json_extract(qi.config_json, '$.source.type')`, '=', 'photo')
-  .where(sql<number>`json_extract(qi.config_json, '$.source.id')`, '=', photoId)
+  .where(jsonText(db, 'qi.config_json', '$.source.type'), '=', 'photo')
+  .where(jsonNumber(db, 'qi.config_json', '$.source.id'), '=', photoId)
 
 /**
  * Whether a quiz gives this person the photograph's pixels: a student of a cohort

@@ -1,11 +1,11 @@
-// Uploaded fundus photographs on disk. Files live in a folder beside the SQLite
-// file (never under public/), under random names, and are reached only through the
-// authorised image route. The type is read from the file's own first bytes, never
-// from its name or the declared type, and every file is decoded and re-encoded by
-// sharp so that no metadata (EXIF, GPS, camera serials, text chunks) survives.
+// Uploaded fundus photographs: checked and cleaned here, stored through the photo
+// storage (server/lib/storage: a private folder or bucket, never public/) under
+// random names, and reached only through the authorised image route. The type is
+// read from the file's own first bytes, never from its name or the declared type,
+// and every file is decoded and re-encoded by sharp so that no metadata (EXIF, GPS,
+// camera serials, text chunks) survives.
 
 import { randomUUID } from 'node:crypto'
-import { mkdir, open, rename, rm } from 'node:fs/promises'
 import { dirname, join, resolve } from 'node:path'
 import sharp from 'sharp'
 
@@ -53,29 +53,3 @@ export const newStorageName = (type: FundusPhotoType): string => `${randomUUID()
 
 /** Only names this module made: a UUID and an extension. Guards every path join. */
 export const isStorageName = (name: string): boolean => /^[0-9a-f-]{36}\.(?:jpg|png)$/.test(name)
-
-export function storagePath(dir: string, name: string): string {
-  if (!isStorageName(name)) throw new Error('Not a fundus photo storage name.')
-  return join(dir, name)
-}
-
-/** Write to a temporary file in the photo folder and flush it; the caller renames it into place. */
-export async function writeTemporary(dir: string, bytes: Buffer): Promise<string> {
-  await mkdir(dir, { recursive: true, mode: 0o700 })
-  const temp = join(dir, `.upload-${randomUUID()}.tmp`)
-  const handle = await open(temp, 'wx', 0o600)
-  try {
-    await handle.writeFile(bytes)
-    await handle.sync()
-  }
-  finally {
-    await handle.close()
-  }
-  return temp
-}
-
-export const moveIntoPlace = (dir: string, temp: string, name: string): Promise<void> => rename(temp, storagePath(dir, name))
-
-export async function removeQuietly(path: string | null | undefined): Promise<void> {
-  if (path) await rm(path, { force: true }).catch(() => {})
-}

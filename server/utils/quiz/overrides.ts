@@ -5,6 +5,7 @@
 // their own ids) in quiz_fundus_overrides.
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
+import { deliverDueGrades, queueQuizGrades } from '~~/server/lib/lti/grades'
 
 /** 409 unless the attempt is the student's last on its item. */
 export function assertCountingAttempt(attemptId: number, latestId: number): void {
@@ -38,4 +39,14 @@ export async function storeMarkOverride(db: Kysely<Database>, o: MarkOverride): 
       detail: { quizId: o.quizId, studentId: o.studentId, itemId: o.itemId, criterion: o.criterion, from: o.from, to: o.to, reason: o.reason },
     })
   })
+  // after release, the changed score goes to any learning platform the quiz is linked to
+  try {
+    const quiz = await db.selectFrom('quizzes').selectAll().where('id', '=', o.quizId).executeTakeFirst()
+    if (quiz?.released_at && (await queueQuizGrades(db, quiz, 'override', [o.studentId])).length) {
+      deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+    }
+  }
+  catch (error) {
+    console.error(`[lti] could not queue the changed score of quiz ${o.quizId}: ${error instanceof Error ? error.message : error}`)
+  }
 }

@@ -104,9 +104,12 @@ describe('dragging a dial', () => {
 describe('keyboard control', () => {
   it('moves 1° with the arrows, 5° with Shift, and returns to 90° with Home', () => {
     expect(dialKeyAction('ArrowUp', false)).toEqual({ kind: 'step', delta: 1 })
-    expect(dialKeyAction('ArrowRight', false)).toEqual({ kind: 'step', delta: 1 })
+    // → turns the rod's top to the right as seen on screen: clockwise, and the ISO 8429
+    // figures rise anticlockwise, so the figure falls; ← the other way
+    expect(dialKeyAction('ArrowRight', false)).toEqual({ kind: 'step', delta: -1 })
+    expect(dialKeyAction('ArrowLeft', false)).toEqual({ kind: 'step', delta: 1 })
     expect(dialKeyAction('ArrowDown', false)).toEqual({ kind: 'step', delta: -1 })
-    expect(dialKeyAction('ArrowLeft', true)).toEqual({ kind: 'step', delta: -5 })
+    expect(dialKeyAction('ArrowLeft', true)).toEqual({ kind: 'step', delta: 5 })
     expect(dialKeyAction('ArrowUp', true)).toEqual({ kind: 'step', delta: 5 })
     expect(dialKeyAction('Home', false)).toEqual({ kind: 'home' })
     expect(dialKeyAction('a', false)).toBeNull()

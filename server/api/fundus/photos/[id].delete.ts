@@ -1,8 +1,7 @@
 // Delete a photograph (its uploader, a lecturer or an admin): the row, its shares and
-// the measurements made on it go in one transaction, then the file.
+// the measurements made on it go in one transaction, then the stored object.
 import { idParam } from '#shared/schemas/admin'
-import { fundusPhotoDirFor } from '~~/server/utils/fundus/photoFile'
-import { deleteFundusPhoto } from '~~/server/utils/fundus/photoStore'
+import { deleteFundusPhoto, fundusPhotoStorage } from '~~/server/utils/fundus/photoStore'
 
 export default defineEventHandler(async (event) => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')
@@ -18,6 +17,6 @@ export default defineEventHandler(async (event) => {
     const titles = [...new Set(used.map(u => `“${u.title}”`))].join(', ')
     throw createError({ statusCode: 409, message: `This photograph is an item of ${used.length === 1 ? 'the quiz' : 'the quizzes'} ${titles}; remove the item before deleting it.`, data: { code: 'used-by-quiz' } })
   }
-  await deleteFundusPhoto(db, fundusPhotoDirFor(useRuntimeConfig()), photo, user.id)
+  await deleteFundusPhoto(db, fundusPhotoStorage(), photo, user.id)
   return { deleted: id }
 })

@@ -2,8 +2,8 @@
 // Refused clearly, and nothing stored, unless it is a JPEG or PNG by its own bytes,
 // at most 10 MB, readable, and shared only with cohorts the uploader may share with.
 import { photoUploadFields } from '#shared/schemas/fundus'
-import { FUNDUS_PHOTO_MAX_BYTES, cleanImage, fundusPhotoDirFor, sniffImageType } from '~~/server/utils/fundus/photoFile'
-import { storeFundusPhoto } from '~~/server/utils/fundus/photoStore'
+import { FUNDUS_PHOTO_MAX_BYTES, cleanImage, sniffImageType } from '~~/server/utils/fundus/photoFile'
+import { fundusPhotoStorage, storeFundusPhoto } from '~~/server/utils/fundus/photoStore'
 
 const MB = FUNDUS_PHOTO_MAX_BYTES / 1024 / 1024
 /** Room for the form's text fields and multipart boundaries around the file. */
@@ -51,7 +51,7 @@ export default defineEventHandler(async (event) => {
     refuse(415, 'unreadable-image', `The file starts like a ${type === 'image/png' ? 'PNG' : 'JPEG'} but cannot be read: it may be damaged or cut short.`))
 
   const db = await useDb()
-  const row = await storeFundusPhoto(db, fundusPhotoDirFor(useRuntimeConfig()), {
+  const row = await storeFundusPhoto(db, fundusPhotoStorage(), {
     ownerId: user.id,
     title: fields.title,
     eye: fields.eye,

@@ -2,6 +2,7 @@ import { idParam } from '#shared/schemas/admin'
 import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/utils/quiz/access'
 import { QUIZ_STAFF } from '~~/server/utils/quiz/staff'
 import { quizPhase } from '~~/server/utils/quiz/timing'
+import { deliverDueGrades, queueQuizGrades } from '~~/server/lib/lti/grades'
 
 // Release results: unlocks every student's feedback and e-mails each of them. Only
 // after the quiz has closed, so nobody still sitting it can see an answer.
@@ -30,6 +31,16 @@ export default defineEventHandler(async (event) => {
     await trx.updateTable('quizzes').set({ released_at: now, released_by: user.id, updated_at: now }).where('id', '=', id).execute()
     await writeAudit(trx, { actorId: user.id, action: 'quiz.released', targetType: 'quiz', targetId: id, detail: { title: quiz.title } })
   })
+  // scores to learning platforms (LTI AGS): queued now, sent in the background with retries
+  let gradeJobs: number[] = []
+  try {
+    gradeJobs = await queueQuizGrades(db, { ...quiz, released_at: now }, 'release')
+    if (gradeJobs.length) deliverDueGrades(db, Number(useRuntimeConfig().mailRetrySeconds) || 30).catch(() => {})
+  }
+  catch (error) {
+    // the release stands; the log shows no jobs, and the tutor can see that on the marks page
+    console.error(`[lti] could not queue the scores of quiz ${id}: ${error instanceof Error ? error.message : error}`)
+  }
   const students = await quizStudents(db, id)
   const sat = new Set((await db.selectFrom('quiz_sittings').select('student_id').where('quiz_id', '=', id).execute()).map(s => s.student_id))
   const link = `${siteOrigin(event)}/student/quizzes/${id}`
@@ -56,5 +67,5 @@ export default defineEventHandler(async (event) => {
     })
     if (sent) mailed++
   }
-  return { releasedAt: now, mailed, message: `Results released; ${students.length} student${students.length === 1 ? '' : 's'} e-mailed.` }
+  return { releasedAt: now, mailed, gradesQueued: gradeJobs.length, message: `Results released; ${students.length} student${students.length === 1 ? '' : 's'} e-mailed.` }
 })

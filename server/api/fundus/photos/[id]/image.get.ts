@@ -1,15 +1,21 @@
 // The photograph's bytes, only for signed-in people allowed to see it — the library
 // rule, or a quiz that uses the photograph (fundusPhotoImageFor) — others: 404.
-// Served from the data folder, never from public/, and never cached by shared caches.
-import { readFile } from 'node:fs/promises'
+// Served from the photo storage (a private folder or bucket), never from public/,
+// and never cached by shared caches.
 import { idParam } from '#shared/schemas/admin'
-import { fundusPhotoDirFor, storagePath } from '~~/server/utils/fundus/photoFile'
+import { isStorageName } from '~~/server/utils/fundus/photoFile'
+import { fundusPhotoStorage } from '~~/server/utils/fundus/photoStore'
 
 export default defineEventHandler(async (event) => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const photo = await fundusPhotoImageFor(user, id)
-  const bytes = await readFile(storagePath(fundusPhotoDirFor(useRuntimeConfig()), photo.storage_name)).catch(() => null)
+  const bytes = isStorageName(photo.storage_name)
+    ? await fundusPhotoStorage().get(photo.storage_name).catch((error: unknown) => {
+        console.error(`[fundus] reading photo ${photo.id}: ${error instanceof Error ? error.message : error}`)
+        return null
+      })
+    : null
   if (!bytes) notFound('That fundus photograph\'s file')
   setResponseHeaders(event, {
     'Content-Type': photo.mime,

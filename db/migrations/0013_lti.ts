@@ -1,0 +1,121 @@
+// LTI 1.3 (1EdTech LTI Core 1.3, Deep Linking 2.0, Assignment and Grade Services 2.0):
+// registered learning platforms, the tool's own signing keys, one-time login states,
+// used nonces, verified launches waiting to be finished, people and courses linked to
+// accounts and cohorts, resource links bound to quizzes, and the grade-return log.
+// Portable types only (integer, varchar, text; times as ISO text).
+import type { Kysely } from 'kysely'
+import { idType, realType } from './portable'
+
+export async function up(db: Kysely<any>): Promise<void> {
+  await db.schema.createTable('lti_platforms')
+    .addColumn('id', idType(db), c => c.primaryKey())
+    .addColumn('name', 'varchar(120)', c => c.notNull())
+    .addColumn('issuer', 'varchar(500)', c => c.notNull())
+    .addColumn('client_id', 'varchar(255)', c => c.notNull())
+    .addColumn('deployment_ids', 'text', c => c.notNull())
+    .addColumn('auth_url', 'varchar(1000)', c => c.notNull())
+    .addColumn('token_url', 'varchar(1000)', c => c.notNull())
+    .addColumn('jwks_url', 'varchar(1000)', c => c.notNull())
+    .addColumn('disabled', 'integer', c => c.notNull().defaultTo(0))
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .addColumn('updated_at', 'varchar(32)', c => c.notNull())
+    .execute()
+  await db.schema.createIndex('lti_platforms_issuer_client').on('lti_platforms').columns(['issuer', 'client_id']).unique().execute()
+
+  await db.schema.createTable('lti_tool_keys')
+    .addColumn('kid', 'varchar(64)', c => c.primaryKey())
+    .addColumn('alg', 'varchar(16)', c => c.notNull())
+    .addColumn('public_jwk', 'text', c => c.notNull())
+    .addColumn('private_jwk', 'text', c => c.notNull())
+    .addColumn('active', 'integer', c => c.notNull().defaultTo(1))
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .execute()
+
+  await db.schema.createTable('lti_states')
+    .addColumn('state', 'varchar(64)', c => c.primaryKey())
+    .addColumn('nonce', 'varchar(64)', c => c.notNull())
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('target_link_uri', 'varchar(1000)', c => c.notNull())
+    .addColumn('expires_at', 'varchar(32)', c => c.notNull())
+    .addColumn('used_at', 'varchar(32)')
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .execute()
+
+  await db.schema.createTable('lti_nonces')
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('nonce', 'varchar(255)', c => c.notNull())
+    .addColumn('expires_at', 'varchar(32)', c => c.notNull())
+    .addPrimaryKeyConstraint('lti_nonces_pk', ['platform_id', 'nonce'])
+    .execute()
+
+  await db.schema.createTable('lti_launches')
+    .addColumn('id', 'varchar(64)', c => c.primaryKey())
+    .addColumn('state', 'varchar(64)', c => c.notNull())
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('user_id', 'integer', c => c.references('users.id').onDelete('cascade'))
+    .addColumn('message_type', 'varchar(64)', c => c.notNull())
+    .addColumn('claims_json', 'text', c => c.notNull())
+    .addColumn('expires_at', 'varchar(32)', c => c.notNull())
+    .addColumn('finished_at', 'varchar(32)')
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .execute()
+
+  await db.schema.createTable('lti_users')
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('subject', 'varchar(255)', c => c.notNull())
+    .addColumn('user_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .addPrimaryKeyConstraint('lti_users_pk', ['platform_id', 'subject'])
+    .execute()
+  await db.schema.createIndex('lti_users_user').on('lti_users').column('user_id').execute()
+
+  await db.schema.createTable('lti_contexts')
+    .addColumn('id', idType(db), c => c.primaryKey())
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('deployment_id', 'varchar(255)', c => c.notNull())
+    .addColumn('context_id', 'varchar(255)', c => c.notNull())
+    .addColumn('title', 'varchar(255)')
+    .addColumn('cohort_id', 'integer', c => c.references('cohorts.id').onDelete('set null'))
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .execute()
+  await db.schema.createIndex('lti_contexts_key').on('lti_contexts').columns(['platform_id', 'deployment_id', 'context_id']).unique().execute()
+
+  await db.schema.createTable('lti_resource_links')
+    .addColumn('id', idType(db), c => c.primaryKey())
+    .addColumn('platform_id', 'integer', c => c.notNull().references('lti_platforms.id').onDelete('cascade'))
+    .addColumn('deployment_id', 'varchar(255)', c => c.notNull())
+    .addColumn('resource_link_id', 'varchar(255)', c => c.notNull())
+    .addColumn('context_id', 'integer', c => c.references('lti_contexts.id').onDelete('set null'))
+    .addColumn('quiz_id', 'integer', c => c.references('quizzes.id').onDelete('set null'))
+    .addColumn('line_item_url', 'varchar(1000)')
+    .addColumn('ags_scopes', 'text')
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .addColumn('updated_at', 'varchar(32)', c => c.notNull())
+    .execute()
+  await db.schema.createIndex('lti_resource_links_key').on('lti_resource_links').columns(['platform_id', 'deployment_id', 'resource_link_id']).unique().execute()
+  await db.schema.createIndex('lti_resource_links_quiz').on('lti_resource_links').column('quiz_id').execute()
+
+  await db.schema.createTable('lti_grade_jobs')
+    .addColumn('id', idType(db), c => c.primaryKey())
+    .addColumn('quiz_id', 'integer', c => c.notNull().references('quizzes.id').onDelete('cascade'))
+    .addColumn('student_id', 'integer', c => c.notNull().references('users.id').onDelete('cascade'))
+    .addColumn('resource_link_id', 'integer', c => c.notNull().references('lti_resource_links.id').onDelete('cascade'))
+    .addColumn('score_given', realType(db), c => c.notNull())
+    .addColumn('score_maximum', realType(db), c => c.notNull())
+    .addColumn('reason', 'varchar(32)', c => c.notNull())
+    .addColumn('status', 'varchar(16)', c => c.notNull())
+    .addColumn('attempts', 'integer', c => c.notNull().defaultTo(0))
+    .addColumn('last_error', 'text')
+    .addColumn('next_attempt_at', 'varchar(32)', c => c.notNull())
+    .addColumn('created_at', 'varchar(32)', c => c.notNull())
+    .addColumn('sent_at', 'varchar(32)')
+    .execute()
+  await db.schema.createIndex('lti_grade_jobs_due').on('lti_grade_jobs').columns(['status', 'next_attempt_at']).execute()
+  await db.schema.createIndex('lti_grade_jobs_quiz').on('lti_grade_jobs').columns(['quiz_id', 'id']).execute()
+}
+
+export async function down(db: Kysely<any>): Promise<void> {
+  for (const table of ['lti_grade_jobs', 'lti_resource_links', 'lti_contexts', 'lti_users', 'lti_launches', 'lti_nonces', 'lti_states', 'lti_tool_keys', 'lti_platforms']) {
+    await db.schema.dropTable(table).execute()
+  }
+}

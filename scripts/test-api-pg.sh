@@ -1,0 +1,22 @@
+#!/usr/bin/env bash
+# npm run test:api:pg — the PostgreSQL test tier. Builds nothing: run `npm run build`
+# first. Starts a throw-away PostgreSQL cluster (scripts/pg-cluster.sh) unless
+# CYCLODIAL_TEST_PG_URL already names one, runs the dialect round-trip test and the
+# API suite with every test server on a fresh PostgreSQL database of its own, and
+# stops the cluster it started. Extra arguments go to vitest (e.g. a test file).
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+started=""
+if [ -z "${CYCLODIAL_TEST_PG_URL:-}" ]; then
+  eval "$(scripts/pg-cluster.sh start)"
+  started=1
+  trap 'scripts/pg-cluster.sh stop' EXIT
+fi
+export CYCLODIAL_TEST_PG_URL
+echo "--- PostgreSQL tier on ${CYCLODIAL_TEST_PG_URL}"
+
+status=0
+npx vitest run --project unit tests/unit/db/ tests/unit/fundus/photoStore.test.ts || status=$?
+npx vitest run --project api "$@" || status=$?
+exit $status

@@ -1,0 +1,9 @@
+import { platformView, toolConfiguration } from '~~/server/lib/lti/platforms'
+
+// Registered learning platforms, and the tool's configuration to copy into a platform.
+export default defineEventHandler(async (event) => {
+  await requireRole(event, 'admin')
+  const db = await useDb()
+  const rows = await db.selectFrom('lti_platforms').selectAll().orderBy('name').execute()
+  return { items: rows.map(platformView), tool: toolConfiguration(siteOrigin()) }
+})

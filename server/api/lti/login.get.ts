@@ -1,0 +1,4 @@
+import { answerLogin } from '~~/server/lib/lti/flow'
+
+// OIDC third-party initiated login (LTI Core 1.3 §4.1), by GET.
+export default defineEventHandler(async event => answerLogin(event, await useDb(), siteOrigin()))
