@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest'
+import { describe, expect, it, vi } from 'vitest'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import FundusMarker from '~/components/fundus/FundusMarker.vue'
 import type { FundusPicture } from '#shared/engine/fundus/picture'
@@ -51,5 +51,23 @@ describe('FundusMarker keyboard', () => {
     const off = await mountMarker({ disabled: true })
     await off.find('canvas').trigger('keydown', { key: 'ArrowRight' })
     expect(off.emitted('update:disc')).toBeUndefined()
+  })
+  it('announces where the marks are in words once a keyboard move has settled', async () => {
+    vi.useFakeTimers()
+    try {
+      const w = await mountMarker({ disc: { x: 4, y: 3 }, fovea: { x: 2, y: 3 } })
+      const live = () => w.get('[data-testid="fundus-marker-status"]')
+      expect(live().attributes('aria-live')).toBe('polite')
+      await vi.advanceTimersByTimeAsync(500)
+      // 4 of 8 across, 3 of 6 down; 2 of 8 across
+      expect(live().text()).toMatch(/^Disc centre at 50% across, 50% down, fovea at 25% across, 50% down, angle [-\d.]+ degrees\. Moving the disc centre\.$/)
+      await w.setProps({ disc: { x: 6, y: 1.5 } })
+      expect(live().text()).toMatch(/Disc centre at 50% across/)
+      await vi.advanceTimersByTimeAsync(500)
+      expect(live().text()).toMatch(/^Disc centre at 75% across, 25% down/)
+    }
+    finally {
+      vi.useRealTimers()
+    }
   })
 })

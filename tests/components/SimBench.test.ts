@@ -40,6 +40,37 @@ describe('SimBench in learner-turns', () => {
     expect(Math.abs(view.drawModel.view.streaks.LE.angle)).toBeLessThan(0.1)
   })
 
+  it('puts the view into words for screen readers and announces it only once a dial has settled', async () => {
+    fakeLayout(640)
+    vi.useFakeTimers()
+    const id = benchId()
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id } })
+    const store = useBenchStore(id)
+    const live = () => wrapper.get('[data-testid="patient-view-words"]')
+    expect(live().attributes('aria-live')).toBe('polite')
+    // the canvas is described by the same words
+    expect(wrapper.get('canvas[aria-label="What the patient sees"]').attributes('aria-describedby')).toBe(live().attributes('id'))
+    await vi.advanceTimersByTimeAsync(800)
+    const before = live().text()
+    expect(before).toMatch(/line \(right eye\)/)
+    // a dial turned degree by degree: nothing new is announced while it moves
+    for (let k = 1; k <= 5; k++) {
+      store.setRod('RE', level.RE + k)
+      await nextTick()
+      await vi.advanceTimersByTimeAsync(100)
+      expect(live().text()).toBe(before)
+    }
+    store.setRod('RE', level.RE)
+    store.setRod('LE', level.LE)
+    await nextTick()
+    await vi.advanceTimersByTimeAsync(800)
+    // settled: the tilt and the patient's words, together
+    expect(live().text()).toMatch(/is level; .* is level\. The two lines are parallel\. The patient says: “.*parallel now\.”$/)
+    // the visible words are not a live region of their own (no double announcement)
+    expect(wrapper.get('[data-testid="patient-words"]').attributes('aria-live')).toBeUndefined()
+    vi.useRealTimers()
+  })
+
   it('autosaves the draft after a pause, and submits the dial settings with the record', async () => {
     fakeLayout(640)
     vi.useFakeTimers()

@@ -3,9 +3,9 @@
 // listed here nor in NOT_VISITED, so a new page cannot be forgotten.
 // Ids of the demo school are found through the UI (links on list pages) or the API,
 // never written in.
-import { expect, type Page } from '@playwright/test'
+import { expect, request, type Page } from '@playwright/test'
 import { syntheticPng } from '../support/fundus'
-import { sameOrigin } from './helpers'
+import { DEMO_PASSWORD, sameOrigin } from './helpers'
 import { linkCourse, registeredPlatform, tutorDeepLinkLaunch } from './lti-helpers'
 
 export type Who = 'signed-out' | 'student' | 'tutor' | 'lecturer' | 'admin'
@@ -133,6 +133,57 @@ async function practiceSet(page: Page): Promise<string> {
   return `/review/sets/${(await res.json()).id}`
 }
 
+/** The Heron tutor and a Heron student, used only for the handed-in fundus item, so no other spec's Kestrel lists change. */
+export const FUNDUS_TUTOR = 'tutor2@cyclodial.test'
+export const FUNDUS_STUDENT = 'noor.bramblecote@cyclodial.test'
+let handedIn: { quizId: number, attemptId: number } | null = null
+
+/**
+ * A fundus quiz item handed in and released, made through the API: the Heron tutor sets a
+ * quiz with one generated-fundus item, the student (in a request context of their own)
+ * starts it and hands in marks for both eyes, then the tutor closes it and releases the
+ * results. Made once per run; the tutor's and the student's pages both use it.
+ */
+async function fundusHandedIn(page: Page): Promise<{ quizId: number, attemptId: number }> {
+  if (handedIn) return handedIn
+  const origin = new URL(page.url()).origin
+  const headers = { origin }
+  const tutor = await request.newContext({ baseURL: origin })
+  const student = await request.newContext({ baseURL: origin })
+  try {
+    for (const [ctx, email] of [[tutor, FUNDUS_TUTOR], [student, FUNDUS_STUDENT]] as const) {
+      const res = await ctx.post('/api/auth/login', { headers, data: { email, password: DEMO_PASSWORD } })
+      expect(res.status(), `sign in ${email}`).toBe(200)
+    }
+    const cohorts = await (await tutor.get('/api/quizzes/cohorts')).json() as { id: number, name: string }[]
+    const heron = cohorts.find(c => c.name.startsWith('Heron cohort'))!.id // admin.spec renames it 'Heron cohort (Year 2)'
+    const soon = (m: number) => new Date(Date.now() + m * 60_000).toISOString()
+    const quiz = await tutor.post('/api/quizzes', { headers, data: { title: 'Accessibility check: a fundus', opensAt: soon(-1), closesAt: soon(60), cohortIds: [heron] } })
+    expect(quiz.status(), await quiz.text()).toBe(201)
+    const quizId = (await quiz.json()).id as number
+    const item = await tutor.post(`/api/quizzes/${quizId}/items`, { headers, data: { kind: 'fundus', prompt: 'Mark both fundi.', source: { type: 'engine', templateId: 'so-palsy-right-standard' } } })
+    expect(item.status(), await item.text()).toBe(201)
+    // the route answers with the whole quiz; the new item is the last
+    const itemId = ((await item.json()).items as { id: number }[]).at(-1)!.id
+    expect((await tutor.patch(`/api/quizzes/${quizId}`, { headers, data: { published: true } })).status()).toBe(200)
+    const started = await student.post(`/api/quizzes/${quizId}/start`, { headers })
+    expect(started.status(), await started.text()).toBeLessThan(300)
+    // marks anywhere on the picture (8 × 6 disc diameters): grading is not what is checked here
+    const eye = { disc: { x: 5.2, y: 2.8 }, fovea: { x: 2.7, y: 3.1 }, finding: 'within-normal' }
+    const sent = await student.post(`/api/quizzes/${quizId}/items/${itemId}/attempts`, { headers, data: { eyes: { RE: eye, LE: { ...eye, disc: { x: 2.8, y: 2.8 }, fovea: { x: 5.3, y: 3.1 } } } } })
+    expect(sent.status(), await sent.text()).toBe(201)
+    const attemptId = (await sent.json()).attemptId as number
+    expect((await tutor.patch(`/api/quizzes/${quizId}`, { headers, data: { closesAt: soon(-0.5) } })).status()).toBe(200)
+    expect((await tutor.post(`/api/quizzes/${quizId}/release`, { headers })).status()).toBeLessThan(300)
+    handedIn = { quizId, attemptId }
+    return handedIn
+  }
+  finally {
+    await tutor.dispose()
+    await student.dispose()
+  }
+}
+
 /**
  * A tutor's first launch from a practice learning platform's course (the platform runs in
  * the test process; the launch replaces the demo tutor's session with the platform's tutor).
@@ -216,11 +267,19 @@ export const PAGES: A11yPage[] = [
   { file: 'pages/quizzes/index.vue', name: 'quizzes', path: '/quizzes', as: 'admin' },
   { file: 'pages/roster.vue', name: 'roster', path: '/roster', as: 'admin' },
   { file: 'pages/record-checker.vue', name: 'record checker', path: '/record-checker', as: 'admin' },
+
+  // a handed-in fundus quiz item (last: it adds a released quiz for the Heron cohort)
+  { file: 'pages/quizzes/[id]/fundus-attempts/[attemptId].vue', name: 'a handed-in fundus item (staff)', path: async (p) => {
+    const { quizId, attemptId } = await fundusHandedIn(p)
+    return `/quizzes/${quizId}/fundus-attempts/${attemptId}`
+  }, as: 'tutor', account: FUNDUS_TUTOR, ready: bench },
+  { file: 'pages/student/quizzes/[id]/fundus-attempts/[attemptId].vue', name: 'a handed-in fundus item (student, released)', path: async (p) => {
+    const { quizId, attemptId } = await fundusHandedIn(p)
+    return `/student/quizzes/${quizId}/fundus-attempts/${attemptId}`
+  }, as: 'student', account: FUNDUS_STUDENT, ready: bench },
 ]
 
 /** Pages the run does not open, each with the reason. */
 export const NOT_VISITED: Record<string, string> = {
   'pages/index.vue': 'only sends each person on to their home page, which is checked',
-  'pages/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
-  'pages/student/quizzes/[id]/fundus-attempts/[attemptId].vue': 'needs a handed-in fundus quiz item; the demo quizzes have none (not yet set up by this run)',
 }
