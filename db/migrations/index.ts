@@ -16,6 +16,7 @@ import * as m0010 from './0010_sessions'
 import * as m0012 from './0012_rule_swap_evidence'
 import * as m0013 from './0013_lti'
 import * as m0015 from './0015_shared_state'
+import * as m0016 from './0016_pg_review_filters'
 
 export const migrations: Record<string, Migration> = {
   '0001_init': m0001,
@@ -31,6 +32,7 @@ export const migrations: Record<string, Migration> = {
   '0012_rule_swap_evidence': m0012,
   '0013_lti': m0013,
   '0015_shared_state': m0015,
+  '0016_pg_review_filters': m0016,
 }
 
 export const staticMigrationProvider: MigrationProvider = {

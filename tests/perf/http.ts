@@ -4,7 +4,12 @@
 // session cookie looked up in the unsealed-cookie cache, session and user read in
 // one indexed read) shows what signing in costs. Loopback only; every run is
 // bounded in time.
+import { mkdtempSync, rmSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import autocannon from 'autocannon'
+import { createTestDatabase } from '../support/pg'
+import type { TestDatabase } from '../support/pg'
 import { startServer } from '../support/server'
 
 export interface HttpStats { route: string, requestsPerSecond: number, medianLatencyMs: number, errors: number, non2xx: number }
@@ -35,8 +40,22 @@ const stats = (route: string, r: autocannon.Result): HttpStats => ({
   non2xx: r.non2xx,
 })
 
-export async function httpBench(seconds = 8, connections = 20): Promise<{ health: HttpStats, me: HttpStats, check: HttpStats, rounds: number }> {
-  const server = await startServer({ env: { NUXT_MAIL_CATCHER: '0' } })
+/**
+ * `pgAdminUrl` given: the server runs on a fresh PostgreSQL database of that cluster
+ * (dropped afterwards); otherwise on a fresh SQLite file, even when CYCLODIAL_TEST_PG_URL is set.
+ */
+export async function httpBench(seconds = 8, connections = 20, pgAdminUrl?: string): Promise<{ health: HttpStats, me: HttpStats, check: HttpStats, rounds: number }> {
+  const dir = mkdtempSync(join(tmpdir(), 'cyclodial-bench-http-'))
+  let database: TestDatabase | undefined
+  if (pgAdminUrl) database = await createTestDatabase(pgAdminUrl)
+  const server = await startServer({
+    env: { NUXT_MAIL_CATCHER: '0' },
+    ...(database ? { databaseUrl: database.url } : { dbPath: join(dir, 'cyclodial.sqlite') }),
+  }).catch(async (error) => {
+    await database?.drop()
+    rmSync(dir, { recursive: true, force: true })
+    throw error
+  })
   try {
     const login = await fetch(`${server.baseURL}/api/auth/login`, {
       method: 'POST',
@@ -76,5 +95,7 @@ export async function httpBench(seconds = 8, connections = 20): Promise<{ health
   }
   finally {
     await server.stop()
+    await database?.drop()
+    rmSync(dir, { recursive: true, force: true })
   }
 }

@@ -148,3 +148,98 @@ export function reusedBulk(sqlite: Database.Database) {
   const { n } = sqlite.prepare('select count(*) as n from attempt_slips').get() as { n: number }
   return { cohortIds, learners: [], slipRows: n }
 }
+
+/** Minimal client surface the PostgreSQL writer needs (a `pg` Client or pooled client). */
+export interface PgQueryable { query: (text: string, values?: unknown[]) => Promise<{ rows: any[] }> }
+
+/**
+ * Inserts rows with multi-row VALUES lists, as many rows per statement as fit under
+ * PostgreSQL's 65,535 bind parameters (a limit of its wire protocol's Bind message,
+ * postgresql.org/docs/current/protocol-message-formats.html: Int16 parameter count).
+ */
+async function insertMany(client: PgQueryable, table: string, columns: string[], rows: unknown[][]): Promise<void> {
+  const perStatement = Math.max(1, Math.floor(60_000 / columns.length))
+  for (let start = 0; start < rows.length; start += perStatement) {
+    const chunk = rows.slice(start, start + perStatement)
+    const values: unknown[] = []
+    const tuples = chunk.map((row) => {
+      const marks = row.map((v) => {
+        values.push(v)
+        return `$${values.length}`
+      })
+      return `(${marks.join(', ')})`
+    })
+    await client.query(`insert into ${table} (${columns.join(', ')}) values ${tuples.join(', ')}`, values)
+  }
+}
+
+/**
+ * The same bulk data as writeBulk (same random stream, so the same learners, habits,
+ * dates and slips), written to a migrated PostgreSQL database in batched multi-row
+ * inserts inside one transaction, then VACUUM ANALYZE so the planner has statistics
+ * and the visibility map allows index-only scans, as after a normal autovacuum.
+ */
+export async function writeBulkPg(client: PgQueryable, plan: BulkPlan) {
+  const rng = makeRng('bench-bulk')
+  const now = new Date().toISOString()
+  const pools = new Map<Profile, PooledAttempt[]>()
+  for (const [p] of PROFILE_MIX) pools.set(p, gradedPool(p, 240))
+
+  await client.query('begin')
+  const cohortIds: number[] = []
+  for (let c = 0; c < plan.cohorts; c++) {
+    const r = await client.query('insert into cohorts (name, created_at, updated_at) values ($1, $2, $3) returning id', [`Bench cohort ${c + 1}`, now, now])
+    cohortIds.push(Number(r.rows[0].id))
+  }
+  const learners: { id: number, cohort: number, profile: Profile }[] = []
+  const userRows: unknown[][] = []
+  for (let i = 0; i < plan.learners; i++) userRows.push([`bench.learner${i}@cyclodial.test`, `Bench Learner ${i + 1}`, 'student', 'x', 0, now, now])
+  await insertMany(client, 'users', ['email', 'name', 'role', 'password_hash', 'disabled', 'created_at', 'updated_at'], userRows)
+  const ids = new Map<string, number>((await client.query('select id, email from users where email like \'bench.learner%@cyclodial.test\'')).rows.map(r => [r.email as string, Number(r.id)]))
+  const memberRows: unknown[][] = []
+  for (let i = 0; i < plan.learners; i++) {
+    const id = ids.get(`bench.learner${i}@cyclodial.test`)!
+    const cohort = cohortIds[i % cohortIds.length]!
+    memberRows.push([cohort, id, now])
+    learners.push({ id, cohort, profile: profileFor(rng) })
+  }
+  await insertMany(client, 'cohort_members', ['cohort_id', 'user_id', 'created_at'], memberRows)
+  const caseId = Number((await client.query(`insert into cases (owner_id, purpose, template_id, seed, generator_version, condition, difficulty, mode, created_at, updated_at)
+    values ($1, 'practice', 'so-palsy-left-standard', 'bench', 1, 'so-palsy', 'standard', 'learner-turns', $2, $3) returning id`, [learners[0]!.id, now, now])).rows[0].id)
+
+  const attemptCols = ['id', 'case_id', 'learner_id', 'cohort_id', 'kind', 'quiz_id', 'template_id', 'condition', 'difficulty', 'mode', 'seed', 'generator_version',
+    'gaze', 'distance', 'readings_json', 'prisms_json', 'lights', 'record_text', 'parsed_json', 'marks_json', 'score', 'points_earned', 'points_possible', 'slips_json', 'truth_json',
+    're_true_direction', 're_recorded_direction', 'le_true_direction', 'le_recorded_direction', 're_amount_error', 'le_amount_error', 'submitted_at', 'slip_set', 'rule_swap_eye']
+  const slipCols = ['attempt_id', 'learner_id', 'cohort_id', 'kind', 'quiz_id', 'template_id', 'condition', 'code', 'eye', 'created_at']
+  const { max } = (await client.query('select coalesce(max(id), 0) as max from attempts')).rows[0]
+  let nextId = Number(max) + 1
+  const span = plan.weeks * 7 * 86_400_000
+  let slipRows = 0
+  const batch = 10_000
+  for (let start = 0; start < plan.attempts; start += batch) {
+    const attempts: unknown[][] = []
+    const slips: unknown[][] = []
+    for (let i = start; i < Math.min(plan.attempts, start + batch); i++) {
+      const l = learners[i % learners.length]!
+      const a = pick(rng, pools.get(l.profile)!)
+      const quiz = rng() < 0.2
+      const quizId = quiz ? 1 + (cohortIds.indexOf(l.cohort) * plan.quizzesPerCohort) + Math.floor(rng() * plan.quizzesPerCohort) : null
+      const at = new Date(plan.end.getTime() - Math.floor(rng() * span)).toISOString()
+      const kind = quiz ? 'quiz' : 'practice'
+      const id = nextId++
+      attempts.push([id, caseId, l.id, l.cohort, kind, quizId, a.templateId, a.condition, 'standard', 'learner-turns', 'bench', 1, a.gaze, 'near', a.readings, '[]', 'dim', a.record, a.parsed, a.marks,
+        a.score, a.earned, a.possible, a.slipsJson, a.truth, a.dirs.reTrue, a.dirs.reRec, a.dirs.leTrue, a.dirs.leRec, a.errors.re, a.errors.le, at, a.slipSet, a.ruleSwapEye])
+      for (const s of a.slips) {
+        slips.push([id, l.id, l.cohort, kind, quizId, a.templateId, a.condition, s.code, s.eye, at])
+        slipRows++
+      }
+    }
+    await insertMany(client, 'attempts', attemptCols, attempts)
+    await insertMany(client, 'attempt_slips', slipCols, slips)
+  }
+  // the ids above were given explicitly: move the serial's sequence past them
+  await client.query('select setval(pg_get_serial_sequence(\'attempts\', \'id\'), (select max(id) from attempts))')
+  await client.query('commit')
+  await client.query('vacuum analyze')
+  return { cohortIds, learners, slipRows }
+}

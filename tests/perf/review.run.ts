@@ -1,27 +1,34 @@
-// npm run perf:review — the slip-patterns review at scale (issue 6, item 6).
+// npm run perf:review — the slip-patterns review at scale (issue 6, item 6; issue 15).
 // Seeds 200,000 attempts across 600 learners into a temporary SQLite file,
 // starts the BUILT server on it, and times the review API over HTTP for several
-// filtered views. Prints the median (and p90) of each view and the ratio to a
-// trivial route measured in the same run; fails when a median reaches 100 ms.
+// filtered views. With CYCLODIAL_TEST_PG_URL set or a cluster of scripts/pg-cluster.sh running, it
+// then does the same on a fresh PostgreSQL database of that cluster (same data,
+// written in batched inserts) and prints both side by side. Prints the median
+// (and p90) of each view and the ratio to a trivial route measured in the same
+// run; fails when a median reaches 100 ms on either database.
 import { existsSync, mkdtempSync, rmSync, statSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import SQLite from 'better-sqlite3'
+import pg from 'pg'
 import { afterAll, expect, it } from 'vitest'
-import { migrateToLatest, openDatabase } from '../../db/open'
+import { migrateToLatest, openDatabase, openPostgres } from '../../db/open'
 import { Client, DEMO } from '../support/client'
+import { createTestDatabase } from '../support/pg'
+import type { TestDatabase } from '../support/pg'
 import { startServer } from '../support/server'
 import type { RunningServer } from '../support/server'
-import { reusedBulk, writeBulk } from './review-data'
+import { benchPgUrl } from './pg-target'
+import { reusedBulk, writeBulk, writeBulkPg } from './review-data'
 
 const PLAN = { learners: 600, attempts: 200_000, cohorts: 6, weeks: 26, quizzesPerCohort: 2, end: new Date('2026-12-01T00:00:00Z') }
 const RUNS = 21
 const BUDGET_MS = 100
 
-let server: RunningServer | undefined
+const cleanups: (() => Promise<void>)[] = []
 const dir = mkdtempSync(join(tmpdir(), 'cyclodial-bench-review-'))
 afterAll(async () => {
-  await server?.stop()
+  for (const c of cleanups.reverse()) await c().catch(e => console.error(e))
   rmSync(dir, { recursive: true, force: true })
 })
 
@@ -43,7 +50,11 @@ async function time(client: Client, path: string): Promise<number[]> {
   return out
 }
 
-it('times the review API at 200,000 attempts', async () => {
+interface Row { view: string, median: number, p90: number }
+interface Seeded { server: RunningServer, cohortIds: number[], stop: () => Promise<void> }
+
+/** SQLite: a temporary file (or REVIEW_BENCH_DB, kept and reused), the built server on it. */
+async function seedSqlite(): Promise<Seeded> {
   // REVIEW_BENCH_DB=path keeps the seeded file for query work (and reuses it when it exists)
   const keep = process.env.REVIEW_BENCH_DB
   const dbPath = keep ?? join(dir, 'bench.sqlite')
@@ -60,25 +71,61 @@ it('times the review API at 200,000 attempts', async () => {
   // the benchmark's own cohorts (a reused file also holds the demo school's attempts)
   const counts = sqlite.prepare(`select count(*) as attempts, count(distinct learner_id) as learners from attempts
     where cohort_id in (select id from cohorts where name like 'Bench cohort %')`).get() as { attempts: number, learners: number }
-  console.log(`seeded ${counts.attempts} attempts, ${made.slipRows} slips, ${counts.learners} learners in ${(seeded / 1000).toFixed(1)} s; file ${(statSync(dbPath).size / 1e6).toFixed(0)} MB`)
+  console.log(`SQLite: seeded ${counts.attempts} attempts, ${made.slipRows} slips, ${counts.learners} learners in ${(seeded / 1000).toFixed(1)} s; file ${(statSync(dbPath).size / 1e6).toFixed(0)} MB`)
   expect(counts.attempts).toBe(PLAN.attempts)
   expect(counts.learners).toBe(PLAN.learners)
   sqlite.close()
 
-  server = await startServer({ dbPath })
+  const server = await startServer({ dbPath })
   if (reuse) await new Promise(r => setTimeout(r, 100))
   // the demo tutor also teaches two of the bench cohorts, so tutor-scoped views cover 200 learners
   const link = new SQLite(dbPath)
   const tutor = link.prepare('select id from users where email = ?').get(DEMO.tutor) as { id: number }
   for (const c of made.cohortIds.slice(0, 2)) link.prepare('insert or ignore into cohort_members (cohort_id, user_id, created_at) values (?, ?, ?)').run(c, tutor.id, new Date().toISOString())
   link.close()
+  return { server, cohortIds: made.cohortIds, stop: () => server.stop() }
+}
 
-  const lecturer = new Client(server.baseURL)
+/** PostgreSQL: a fresh database on the test cluster, the same data, the built server on it. */
+async function seedPostgres(adminUrl: string): Promise<Seeded> {
+  const database: TestDatabase = await createTestDatabase(adminUrl)
+  cleanups.push(() => database.drop())
+  const kysely = openPostgres(database.url)
+  await migrateToLatest(kysely)
+  await kysely.destroy()
+
+  const client = new pg.Client({ connectionString: database.url })
+  await client.connect()
+  try {
+    const t0 = performance.now()
+    const made = await writeBulkPg(client, PLAN)
+    const seeded = performance.now() - t0
+    const counts = (await client.query(`select count(*)::int as attempts, count(distinct learner_id)::int as learners from attempts
+      where cohort_id in (select id from cohorts where name like 'Bench cohort %')`)).rows[0] as { attempts: number, learners: number }
+    const size = (await client.query('select pg_database_size(current_database())::bigint as b')).rows[0].b
+    console.log(`PostgreSQL: seeded ${counts.attempts} attempts, ${made.slipRows} slips, ${counts.learners} learners in ${(seeded / 1000).toFixed(1)} s (incl. VACUUM ANALYZE); database ${(Number(size) / 1e6).toFixed(0)} MB`)
+    expect(counts.attempts).toBe(PLAN.attempts)
+    expect(counts.learners).toBe(PLAN.learners)
+
+    const server = await startServer({ databaseUrl: database.url })
+    const tutor = (await client.query('select id from users where email = $1', [DEMO.tutor])).rows[0] as { id: number }
+    for (const c of made.cohortIds.slice(0, 2)) {
+      await client.query('insert into cohort_members (cohort_id, user_id, created_at) values ($1, $2, $3) on conflict do nothing', [c, tutor.id, new Date().toISOString()])
+    }
+    return { server, cohortIds: made.cohortIds, stop: () => server.stop() }
+  }
+  finally {
+    await client.end()
+  }
+}
+
+async function measure(s: Seeded): Promise<Row[]> {
+  const lecturer = new Client(s.server.baseURL)
   await lecturer.signIn(DEMO.lecturer)
-  const tutorClient = new Client(server.baseURL)
+  const tutorClient = new Client(s.server.baseURL)
   await tutorClient.signIn(DEMO.tutor)
-  const c1 = made.cohortIds[0]!
-  const c3 = made.cohortIds[2]!
+  const c1 = s.cohortIds[0]!
+  const c3 = s.cohortIds[2]!
   const views: [string, Client, string][] = [
     ['floor: GET /api/health', lecturer, '/api/health'],
     ['slips · all cohorts', lecturer, '/api/review/slips'],
@@ -99,15 +146,44 @@ it('times the review API at 200,000 attempts', async () => {
     ['tutor · slips (2 cohorts)', tutorClient, '/api/review/slips'],
     ['tutor · learners (2 cohorts)', tutorClient, '/api/review/learners'],
   ]
-  const rows: { view: string, median: number, p90: number }[] = []
+  const rows: Row[] = []
   for (const [view, client, path] of views) {
     const t = await time(client, path)
     rows.push({ view, median: median(t), p90: p90(t) })
   }
-  const floor = rows[0]!.median
-  console.log(`\nreview API over HTTP, ${RUNS} runs per view after 2 warm-ups (built server, ${PLAN.attempts} attempts)`)
-  console.log(`${'view'.padEnd(44)} ${'median ms'.padStart(10)} ${'p90 ms'.padStart(8)} ${'× floor'.padStart(8)}`)
-  for (const r of rows) console.log(`${r.view.padEnd(44)} ${r.median.toFixed(1).padStart(10)} ${r.p90.toFixed(1).padStart(8)} ${(r.median / floor).toFixed(1).padStart(8)}`)
-  const over = rows.slice(1).filter(r => r.median >= BUDGET_MS)
-  expect(over, `views with a median of ${BUDGET_MS} ms or more`).toEqual([])
-}, 900_000)
+  return rows
+}
+
+it('times the review API at 200,000 attempts, on SQLite and (when a cluster is given) PostgreSQL', async () => {
+  const results: { name: string, rows: Row[] }[] = []
+  // one database at a time: each server is stopped before the next one is seeded
+  const sqlite = await seedSqlite()
+  cleanups.push(sqlite.stop)
+  results.push({ name: 'SQLite', rows: await measure(sqlite) })
+  await sqlite.stop()
+  const pgUrl = await benchPgUrl()
+  if (pgUrl) {
+    const postgres = await seedPostgres(pgUrl)
+    cleanups.push(postgres.stop)
+    results.push({ name: 'PostgreSQL', rows: await measure(postgres) })
+    await postgres.stop()
+  }
+  else {
+    console.log('PostgreSQL: not measured (set CYCLODIAL_TEST_PG_URL, e.g. eval "$(bash scripts/pg-cluster.sh start)")')
+  }
+
+  console.log(`\nreview API over HTTP, ${RUNS} runs per view after 2 warm-ups (built server, ${PLAN.attempts} attempts); ms, × = median ÷ the same database's health median`)
+  const head = results.map(r => `${`${r.name} median`.padStart(18)} ${'p90'.padStart(7)} ${'×'.padStart(6)}`).join(' ')
+  console.log(`${'view'.padEnd(44)} ${head}`)
+  results[0]!.rows.forEach((row, i) => {
+    const cells = results.map((r) => {
+      const x = r.rows[i]!
+      return `${x.median.toFixed(1).padStart(18)} ${x.p90.toFixed(1).padStart(7)} ${(x.median / r.rows[0]!.median).toFixed(1).padStart(6)}`
+    })
+    console.log(`${row.view.padEnd(44)} ${cells.join(' ')}`)
+  })
+  for (const r of results) {
+    const over = r.rows.slice(1).filter(x => x.median >= BUDGET_MS)
+    expect(over, `${r.name}: views with a median of ${BUDGET_MS} ms or more`).toEqual([])
+  }
+}, 1_800_000)
