@@ -1,9 +1,8 @@
 // The casebook as the staff pages load it (engine templates, the tutor's own
 // templates and exact cases, default tolerance and weights).
-import type { CasebookData } from '#shared/types/casebook'
 
 export function useCasebook(archived: Ref<'0' | '1'> = ref('0'), page: Ref<number> = ref(1)) {
-  return useFetch<CasebookData>('/api/casebook', { key: 'casebook', query: { archived, page } })
+  return useFetch('/api/casebook', { key: 'casebook', query: { archived, page } })
 }
 
 /** What a template's torsion range measures, in words. */

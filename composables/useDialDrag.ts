@@ -4,8 +4,8 @@
 
 import { useEventListener } from '@vueuse/core'
 import type { Eye } from '#shared/engine/types'
-import type { CellLayout } from '~/composables/sim/frameGeometry'
-import { axisAtPoint, distance, dragGain, dragStep } from '~/composables/sim/frameGeometry'
+import type { CellLayout } from '~/utils/sim/frame-geometry'
+import { axisAtPoint, distance, dragGain, dragStep } from '~/utils/sim/frame-geometry'
 
 export interface DialDragOptions {
   eye: Eye

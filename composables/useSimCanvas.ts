@@ -3,7 +3,7 @@
 // redraw while dragging only paints what moved.
 
 import { useDevicePixelRatio, useResizeObserver } from '@vueuse/core'
-import type { Ctx2d } from '~/composables/sim/drawFrame'
+import type { Ctx2d } from '~/utils/sim/draw-frame'
 
 declare global {
   interface Window {

@@ -1,4 +1,4 @@
-// The reader's locale for dates (composables/formatDates.ts), decided once per visit:
+// The reader's locale for dates (utils/format-dates.ts), decided once per visit:
 // on the server from Accept-Language, in the browser from the payload (so hydration
 // agrees), and from navigator.language when the page was never rendered on a server.
 export default defineNuxtPlugin(() => {

@@ -15,9 +15,9 @@ import type { BenchSetting } from '#shared/engine/view'
 import type { Distance, Eye, Gaze, Lights, Mode, PerEye, Prism } from '#shared/engine/types'
 import { ZERO_TORSION_READING } from '#shared/engine/dial'
 import type { AttemptBody, BenchDraft, TurnRequest } from '#shared/bench/contract'
-import { roundReading } from '~/composables/sim/frameGeometry'
-import { drawnFromReport, drawnFromView } from '~/composables/sim/viewGeometry'
-import type { DrawnView } from '~/composables/sim/viewGeometry'
+import { roundReading } from '~/utils/sim/frame-geometry'
+import { drawnFromReport, drawnFromView } from '~/utils/sim/view-geometry'
+import type { DrawnView } from '~/utils/sim/view-geometry'
 
 /** The trial frame holds at most four loose prisms (the attempt schema says so too). */
 export const MAX_PRISMS = 4

@@ -18,3 +18,6 @@ export interface GradeLogEntry {
   createdAt: string
   sentAt: string | null
 }
+
+/** GET /api/quizzes/:id/lti-grades: the quiz's marks sent to learning platforms. */
+export interface QuizGradeLog { quizId: number, title: string, released: boolean, platforms: string[], items: GradeLogEntry[] }

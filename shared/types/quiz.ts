@@ -309,3 +309,6 @@ export interface QuizFundusAttemptView {
   result: StudentFundusFeedback | null
   overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
 }
+
+/** GET /api/quizzes/cohorts: a cohort the caller may assign. */
+export interface CohortChoice { id: number, name: string }

@@ -118,3 +118,15 @@ export interface PracticeSetDetail {
 
 /** One row of GET /api/review/practice-sets. */
 export interface PracticeSetRow { id: number, title: string, focusTitle: string, eye: string | null, scope: string, size: number, createdAt: string, sender: string | null, cohort: string | null, learners: number }
+
+/** GET /api/review/options: what the review filters offer the caller. */
+export interface ReviewOptions {
+  cohorts: { id: number, name: string }[]
+  templates: { id: string, label: string }[]
+  conditions: string[]
+  quizzes: { id: number, title: string }[]
+  role: string
+}
+
+/** GET /api/practice-sets (student): one set a tutor sent; case ids only. */
+export interface AssignedPracticeSet { id: number, title: string, note: string | null, mode: string, sentAt: string, sender: string | null, cases: { id: number, number: number, attempted: boolean }[], done: number }

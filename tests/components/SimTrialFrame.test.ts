@@ -1,7 +1,7 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { nextTick } from 'vue'
 import SimTrialFrame from '~/components/sim/SimTrialFrame.vue'
-import { frameLayout, polar } from '~/composables/sim/frameGeometry'
+import { frameLayout, polar } from '~/utils/sim/frame-geometry'
 import { engineCase } from '~~/tests/support/presentation'
 import { fakeLayout, mountInBench, nextFrame } from '~~/tests/support/benchHost'
 

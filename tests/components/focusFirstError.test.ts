@@ -1,7 +1,7 @@
 // Errors tied to their fields and focus moved to the first (WCAG 2.1 SC 3.3.1 Error
 // Identification, 1.3.1 Info and Relationships; WAI-ARIA 1.2 aria-invalid, aria-describedby).
 import { afterEach, describe, expect, it } from 'vitest'
-import { focusFirstError, tieFieldErrors } from '~/composables/useFocusFirstError'
+import { focusFirstError, tieFieldErrors } from '~/utils/focus-first-error'
 
 function form(html: string): HTMLFormElement {
   const f = document.createElement('form')

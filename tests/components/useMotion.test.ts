@@ -1,6 +1,6 @@
 // Scripts honour the prefers-reduced-motion media feature (Media Queries Level 5; WCAG 2.1 SC 2.3.3).
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import { prefersReducedMotion, scrollBehaviour } from '~/composables/useMotion'
+import { prefersReducedMotion, scrollBehaviour } from '~/utils/motion'
 
 function systemAsks(reduce: boolean) {
   vi.spyOn(window, 'matchMedia').mockImplementation(query => ({

@@ -1,8 +1,10 @@
 // GET /api/practice-sets (student (own)): practice sets sent to me: `{ items: [{ id,
 // title, note, mode, sentAt, sender, cases: [{ id, number, attempted }], done }] }` —
 // case ids only
+import type { AssignedPracticeSet } from '#shared/types/review'
+
 /** The practice sets a learner's tutors sent them, with their cases (ids only: nothing that names the answer). */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<{ items: AssignedPracticeSet[] }> => {
   const user = await requireRole(event, 'student')
   const db = await useDb()
   const sets = await db.selectFrom('practice_set_learners')

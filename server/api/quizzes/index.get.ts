@@ -7,6 +7,7 @@
 // itemCount, feedbackOpen, sitting: { status, startedAt, deadline } }], total, page,
 // pageSize }`
 import { quizListQuery } from '#shared/schemas/quiz'
+import type { QuizPage, StaffQuizSummary, StudentQuizSummary } from '#shared/types/quiz'
 import { visibleQuizIds } from '~~/server/lib/quiz/access'
 import { staffSummaries, studentSummary } from '~~/server/lib/quiz/present'
 import { quizItemCounts } from '~~/server/lib/data/quiz-items'
@@ -14,7 +15,7 @@ import { quizItemCounts } from '~~/server/lib/data/quiz-items'
 // The quizzes the caller may see: lecturers and admins every quiz; a tutor their own
 // and their cohorts'; a student the published quizzes assigned to their cohort.
 // Paged: `page` (from 1) and `pageSize` (default 50, at most 100), newest opening first.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizPage<StaffQuizSummary> | QuizPage<StudentQuizSummary>> => {
   const user = await requireSignedIn(event)
   const { archived, page, pageSize } = queryAs(event, quizListQuery)
   const db = await useDb()

@@ -1,12 +1,13 @@
 // GET /api/review/options (tutor, lecturer): what the filters offer the caller: `{
 // cohorts, templates, conditions, quizzes, role }`
 import { REVIEW_ROLES } from '#shared/auth/roles'
+import type { ReviewOptions } from '#shared/types/review'
 import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
 import { CONDITIONS } from '#shared/engine/caseSpec'
 import { visibleCohorts } from '~~/server/lib/review/scope'
 
 /** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<ReviewOptions> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const db = await useDb()
   const cohorts = await visibleCohorts(db, user)

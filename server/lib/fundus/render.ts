@@ -1,5 +1,5 @@
 // A generated fundus picture as pixels, drawn on the server: the same scene
-// (shared/engine/fundus/scene.ts) the browser's painter (composables/useFundusPainter.ts)
+// (shared/engine/fundus/scene.ts) the browser's painter (utils/fundus-painter.ts)
 // draws, written as SVG and rasterised with sharp. A quiz item sends these pixels
 // instead of the picture's geometry, so during a sitting the browser never holds the
 // disc and fovea coordinates (or the look key) — the learner must measure the picture.

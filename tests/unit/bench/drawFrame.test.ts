@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { drawFrameRods, drawFrameStatic } from '~~/composables/sim/drawFrame'
-import { frameLayout, polar } from '~~/composables/sim/frameGeometry'
+import { drawFrameRods, drawFrameStatic } from '~~/utils/sim/draw-frame'
+import { frameLayout, polar } from '~~/utils/sim/frame-geometry'
 import { recordingContext } from '~~/tests/support/canvas'
 
 const near = (p: { x: number, y: number }, q: { x: number, y: number }) => Math.hypot(p.x - q.x, p.y - q.y) < 1e-6

@@ -9,7 +9,7 @@ import {
   polar,
   roundReading,
   scaleTicks,
-} from '~~/composables/sim/frameGeometry'
+} from '~~/utils/sim/frame-geometry'
 
 const cell = { cx: 100, cy: 100 }
 const close = (a: number, b: number) => expect(a).toBeCloseTo(b, 6)

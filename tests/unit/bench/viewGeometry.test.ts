@@ -3,7 +3,7 @@ import { buildView } from '#shared/engine/view'
 import type { ViewSource } from '#shared/engine/view'
 import { describeView } from '#shared/engine/words'
 import type { Presentation } from '#shared/engine/presentation'
-import { drawnFromReport, drawnFromView, pxPerDioptre, streakSegment, VIEW_ASPECT } from '~~/composables/sim/viewGeometry'
+import { drawnFromReport, drawnFromView, pxPerDioptre, streakSegment, VIEW_ASPECT } from '~~/utils/sim/view-geometry'
 
 const source: ViewSource = {
   horizontalAt: { RE: 96, LE: 90 },

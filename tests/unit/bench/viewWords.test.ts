@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import type { DrawnStreak, DrawnView } from '~~/composables/sim/viewGeometry'
-import { drawnViewInWords, tiltInWords } from '~~/composables/sim/viewWords'
+import type { DrawnStreak, DrawnView } from '~~/utils/sim/view-geometry'
+import { drawnViewInWords, tiltInWords } from '~~/utils/sim/view-words'
 
 const streak = (eye: 'RE' | 'LE', angle: number, extra: Partial<DrawnStreak> = {}): DrawnStreak => ({
   eye,

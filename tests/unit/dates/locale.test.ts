@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { DATE_FALLBACK_LOCALE, pickDateLocale } from '~~/composables/formatDates'
+import { DATE_FALLBACK_LOCALE, pickDateLocale } from '~~/utils/format-dates'
 
 describe('the reader\'s locale for dates', () => {
   it('takes the first usable tag of Accept-Language (RFC 9110 §12.5.4: tags in order, q-values after ";")', () => {

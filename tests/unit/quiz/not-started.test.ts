@@ -7,7 +7,7 @@ import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
 import { meanOfFinished, resultsPage } from '~~/server/lib/quiz/results-page'
 import type { StudentResult } from '#shared/types/quiz'
 import type { ItemColumn } from '~~/server/lib/quiz/results'
-import { formatDuration } from '~~/composables/useQuizTime'
+import { formatDuration } from '~~/utils/quiz-time'
 
 const config = { kind: 'dmr' as const, source: { type: 'engine' as const, templateId: 'normal-standard', title: 'N' }, perStudent: true, mode: 'patient-turns' as const, readScale: false, tolerance: 2, weights: DEFAULT_QUIZ_WEIGHTS }
 const columns: ItemColumn[] = [{ id: 9, position: 1, config, criteria: ['amount'], possible: 2 }]

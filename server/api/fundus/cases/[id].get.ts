@@ -2,13 +2,14 @@
 // pictures, earlier measurements with their feedback, and — once both a fundus
 // measurement and a double Maddox rod record exist — subjective against objective.
 import { idParam } from '#shared/schemas/common'
+import type { CaseFundusView } from '#shared/types/fundus'
 import { compareWithDmr } from '~~/server/lib/fundus/compare'
 import { fundusForCase } from '~~/server/lib/fundus/generate'
 import { toFundusPresentation } from '~~/server/lib/fundus/presentation'
 import { dmrRecordedOn, ownCaseForFundus } from '~~/server/lib/fundus/case-fundus'
 import { listFundusAttempts } from '~~/server/lib/fundus/attempts'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CaseFundusView> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const { row, case: c } = await ownCaseForFundus(user, id)

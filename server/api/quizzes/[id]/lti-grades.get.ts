@@ -1,11 +1,12 @@
 // The quiz's scores sent to learning platforms (or waiting, with the last error): a tutor
 // sees their own cohorts' students.
 import { idParam } from '#shared/schemas/common'
+import type { QuizGradeLog } from '#shared/types/lti'
 import { gradeLog } from '~~/server/lib/lti/grades'
 import { quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizGradeLog> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

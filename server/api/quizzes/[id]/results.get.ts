@@ -9,12 +9,13 @@
 import { idParam } from '#shared/schemas/common'
 import { QUIZ_STAFF } from '#shared/auth/roles'
 import { resultsQuery } from '#shared/schemas/quiz'
+import type { QuizResultsResponse } from '#shared/types/quiz'
 import { managesQuiz, quizForStaff, quizReach, quizStudents } from '~~/server/lib/quiz/access'
 import { quizSettings } from '~~/server/lib/quiz/present'
 import { computeResults } from '~~/server/lib/quiz/results'
 import { resultsPage } from '~~/server/lib/quiz/results-page'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizResultsResponse> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const query = queryAs(event, resultsQuery)

@@ -1,5 +1,5 @@
 // Dates and durations on quiz pages. The server stores and enforces UTC; pages
-// show local time (formatWhen in composables/formatDates.ts) and edit it through
+// show local time (formatWhen in utils/format-dates.ts) and edit it through
 // <input type="datetime-local">.
 const pad = (n: number) => String(n).padStart(2, '0')
 

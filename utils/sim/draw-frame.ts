@@ -4,8 +4,8 @@
 
 import type { Eye, PerEye } from '#shared/engine/types'
 import { zeroEndSide } from '#shared/engine/dial'
-import type { CellLayout, FrameLayout } from './frameGeometry'
-import { polar, scaleTicks } from './frameGeometry'
+import type { CellLayout, FrameLayout } from './frame-geometry'
+import { polar, scaleTicks } from './frame-geometry'
 import { PALETTE, withAlpha } from './palette'
 
 /** The subset of CanvasRenderingContext2D the drawing uses (a recording fake serves in tests). */

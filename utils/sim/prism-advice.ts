@@ -1,6 +1,6 @@
 // What to do when the patient cannot report two separate lines: said beside the
 // patient's words, where the learner is looking, not under the prism tray.
-import type { DrawnView } from './viewGeometry'
+import type { DrawnView } from './view-geometry'
 import type { PatientView } from '#shared/engine/view'
 
 export const ADVICE_ONE_OUT = 'One line is out of view: a prism before one eye moves its line back into the field (the image moves towards the apex).'

@@ -9,7 +9,7 @@ import type { PatientView } from '#shared/engine/view'
 import type { Observation, SlopeSize } from '#shared/engine/words'
 import type { Eye, Lights, Offset, PerEye, Prism } from '#shared/engine/types'
 import { EYES, mapEyes } from '#shared/engine/types'
-import type { Point } from './frameGeometry'
+import type { Point } from './frame-geometry'
 
 export interface DrawnStreak extends StreakLook {
   eye: Eye

@@ -6,7 +6,7 @@
 import { slopeSize } from '#shared/engine/words'
 import type { SlopeSize } from '#shared/engine/words'
 import type { Eye } from '#shared/engine/types'
-import type { DrawnStreak, DrawnView } from './viewGeometry'
+import type { DrawnStreak, DrawnView } from './view-geometry'
 
 /** Below this tilt (degrees) a drawn streak is described as level; Cyclodial's own choice (about what the eye can tell on the canvas). */
 export const LEVEL_DRAWN = 0.5

@@ -2,10 +2,10 @@
 // lit room whose edges give orientation cues), each through the image of the
 // fixation light, at the tilt the patient perceives.
 
-import type { Ctx2d } from './drawFrame'
+import type { Ctx2d } from './draw-frame'
 import { PALETTE, withAlpha } from './palette'
-import type { DrawnStreak, DrawnView } from './viewGeometry'
-import { pxPerDioptre, streakSegment } from './viewGeometry'
+import type { DrawnStreak, DrawnView } from './view-geometry'
+import { pxPerDioptre, streakSegment } from './view-geometry'
 
 export interface ViewDrawModel {
   width: number
