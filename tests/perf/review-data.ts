@@ -152,6 +152,13 @@ export function reusedBulk(sqlite: Database.Database) {
 /** Minimal client surface the PostgreSQL writer needs (a `pg` Client or pooled client). */
 export interface PgQueryable { query: (text: string, values?: unknown[]) => Promise<{ rows: any[] }> }
 
+/** The cohorts of a PostgreSQL benchmark database seeded earlier (REVIEW_BENCH_PG_DB). */
+export async function reusedBulkPg(client: PgQueryable) {
+  const cohortIds = (await client.query('select id from cohorts where name like \'Bench cohort %\' order by id')).rows.map(r => Number(r.id))
+  const { n } = (await client.query('select count(*)::int as n from attempt_slips')).rows[0]
+  return { cohortIds, learners: [], slipRows: Number(n) }
+}
+
 /**
  * Inserts rows with multi-row VALUES lists, as many rows per statement as fit under
  * PostgreSQL's 65,535 bind parameters (a limit of its wire protocol's Bind message,

@@ -19,7 +19,7 @@ import type { TestDatabase } from '../support/pg'
 import { startServer } from '../support/server'
 import type { RunningServer } from '../support/server'
 import { benchPgUrl } from './pg-target'
-import { reusedBulk, writeBulk, writeBulkPg } from './review-data'
+import { reusedBulk, reusedBulkPg, writeBulk, writeBulkPg } from './review-data'
 
 const PLAN = { learners: 600, attempts: 200_000, cohorts: 6, weeks: 26, quizzesPerCohort: 2, end: new Date('2026-12-01T00:00:00Z') }
 const RUNS = 21
@@ -86,19 +86,50 @@ async function seedSqlite(): Promise<Seeded> {
   return { server, cohortIds: made.cohortIds, stop: () => server.stop() }
 }
 
-/** PostgreSQL: a fresh database on the test cluster, the same data, the built server on it. */
+/** REVIEW_BENCH_PG_DB=name: a database of that name on the cluster, kept afterwards and reused when it holds the data. */
+async function keptPgDatabase(adminUrl: string, name: string): Promise<{ url: string, reuse: boolean }> {
+  if (!/^[a-z_][a-z0-9_]{0,62}$/.test(name)) throw new Error('REVIEW_BENCH_PG_DB must be a plain lower-case database name')
+  const u = new URL(adminUrl)
+  u.pathname = `/${name}`
+  const admin = new pg.Client({ connectionString: adminUrl })
+  await admin.connect()
+  try {
+    const exists = (await admin.query('select 1 from pg_database where datname = $1', [name])).rowCount
+    if (!exists) await admin.query(`create database ${name}`)
+  }
+  finally {
+    await admin.end()
+  }
+  const probe = new pg.Client({ connectionString: u.toString() })
+  await probe.connect()
+  try {
+    const seeded = await probe.query('select 1 from cohorts where name like \'Bench cohort %\' limit 1').then(r => r.rowCount! > 0, () => false)
+    return { url: u.toString(), reuse: seeded }
+  }
+  finally {
+    await probe.end()
+  }
+}
+
+/** PostgreSQL: a fresh database on the test cluster (or REVIEW_BENCH_PG_DB), the same data, the built server on it. */
 async function seedPostgres(adminUrl: string): Promise<Seeded> {
-  const database: TestDatabase = await createTestDatabase(adminUrl)
-  cleanups.push(() => database.drop())
-  const kysely = openPostgres(database.url)
+  let url: string
+  let reuse = false
+  if (process.env.REVIEW_BENCH_PG_DB) ({ url, reuse } = await keptPgDatabase(adminUrl, process.env.REVIEW_BENCH_PG_DB))
+  else {
+    const database: TestDatabase = await createTestDatabase(adminUrl)
+    cleanups.push(() => database.drop())
+    url = database.url
+  }
+  const kysely = openPostgres(url)
   await migrateToLatest(kysely)
   await kysely.destroy()
 
-  const client = new pg.Client({ connectionString: database.url })
+  const client = new pg.Client({ connectionString: url })
   await client.connect()
   try {
     const t0 = performance.now()
-    const made = await writeBulkPg(client, PLAN)
+    const made = reuse ? await reusedBulkPg(client) : await writeBulkPg(client, PLAN)
     const seeded = performance.now() - t0
     const counts = (await client.query(`select count(*)::int as attempts, count(distinct learner_id)::int as learners from attempts
       where cohort_id in (select id from cohorts where name like 'Bench cohort %')`)).rows[0] as { attempts: number, learners: number }
@@ -107,7 +138,7 @@ async function seedPostgres(adminUrl: string): Promise<Seeded> {
     expect(counts.attempts).toBe(PLAN.attempts)
     expect(counts.learners).toBe(PLAN.learners)
 
-    const server = await startServer({ databaseUrl: database.url })
+    const server = await startServer({ databaseUrl: url })
     const tutor = (await client.query('select id from users where email = $1', [DEMO.tutor])).rows[0] as { id: number }
     for (const c of made.cohortIds.slice(0, 2)) {
       await client.query('insert into cohort_members (cohort_id, user_id, created_at) values ($1, $2, $3) on conflict do nothing', [c, tutor.id, new Date().toISOString()])
@@ -156,11 +187,14 @@ async function measure(s: Seeded): Promise<Row[]> {
 
 it('times the review API at 200,000 attempts, on SQLite and (when a cluster is given) PostgreSQL', async () => {
   const results: { name: string, rows: Row[] }[] = []
-  // one database at a time: each server is stopped before the next one is seeded
-  const sqlite = await seedSqlite()
-  cleanups.push(sqlite.stop)
-  results.push({ name: 'SQLite', rows: await measure(sqlite) })
-  await sqlite.stop()
+  // one database at a time: each server is stopped before the next one is seeded;
+  // REVIEW_BENCH_ONLY=postgres skips SQLite (to re-measure a kept REVIEW_BENCH_PG_DB)
+  if (process.env.REVIEW_BENCH_ONLY !== 'postgres') {
+    const sqlite = await seedSqlite()
+    cleanups.push(sqlite.stop)
+    results.push({ name: 'SQLite', rows: await measure(sqlite) })
+    await sqlite.stop()
+  }
   const pgUrl = await benchPgUrl()
   if (pgUrl) {
     const postgres = await seedPostgres(pgUrl)
@@ -169,6 +203,7 @@ it('times the review API at 200,000 attempts, on SQLite and (when a cluster is g
     await postgres.stop()
   }
   else {
+    if (!results.length) throw new Error('REVIEW_BENCH_ONLY=postgres needs a PostgreSQL cluster (CYCLODIAL_TEST_PG_URL or scripts/pg-cluster.sh start)')
     console.log('PostgreSQL: not measured (set CYCLODIAL_TEST_PG_URL, e.g. eval "$(bash scripts/pg-cluster.sh start)")')
   }
 

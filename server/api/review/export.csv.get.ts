@@ -5,7 +5,7 @@ import { REVIEW_ROLES } from '#shared/auth/roles'
 import { z } from 'zod'
 import { EXPORT_TABLES, reviewAttemptsQuery, reviewFilterQuery, reviewLearnersQuery } from '#shared/schemas/review'
 import { AMOUNT_BAND_EDGES } from '#shared/review/bands'
-import { amountBands, directionTable, reviewTotals, slipCounts, weeklyTrend } from '~~/server/lib/review/aggregates'
+import { amountBands, directionTable, reviewTotals, slipCodeCounts, slipTable, weeklyTrend } from '~~/server/lib/review/aggregates'
 import { toCsv } from '~~/server/lib/review/csv'
 import type { Cell } from '~~/server/lib/review/csv'
 import { drillAttempts } from '~~/server/lib/review/drill'
@@ -43,9 +43,9 @@ export default defineEventHandler(async (event) => {
     const q = queryAs(event, reviewFilterQuery)
     const scope = await reviewScopeFor(db, user, q.cohortId)
     if (table === 'slips') {
-      const totals = await reviewTotals(db, q, scope)
+      const [totals, counts] = await Promise.all([reviewTotals(db, q, scope), slipCodeCounts(db, q, scope)])
       header = ['slip code', 'slip', 'slips', 'per 100 attempts']
-      rows = (await slipCounts(db, q, scope, totals.attempts)).map(s => [s.code, s.title, s.count, s.per100])
+      rows = slipTable(counts, totals.attempts).map(s => [s.code, s.title, s.count, s.per100])
     }
     else if (table === 'directions') {
       const t = await directionTable(db, q, scope)

@@ -33,12 +33,18 @@ export async function reviewTotals(db: Kysely<Database>, f: ReviewFilters, scope
   return { attempts, learners: per.size }
 }
 
-export async function slipCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, attempts: number): Promise<SlipCount[]> {
+/** Slips by code in the view (a slip in both eyes counts twice; the eye filter keeps that eye's). */
+export async function slipCodeCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<Map<SlipCode, number>> {
   const rows = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
     .select(eb => ['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye', eb.fn.countAll<number>().as('n')])
     .groupBy(['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye']).execute()
   const counts = new Map<SlipCode, number>()
   for (const r of rows) if (isSlipCode(r.code)) counts.set(r.code, (counts.get(r.code) ?? 0) + Number(r.n))
+  return counts
+}
+
+/** Every slip code with its count and its rate per 100 attempts, most frequent first. */
+export function slipTable(counts: Map<SlipCode, number>, attempts: number): SlipCount[] {
   return SLIP_CODES
     .map((code) => {
       const count = counts.get(code) ?? 0
@@ -91,18 +97,22 @@ export function bandCondition(eye: Eye, b: BandEdge) {
 export async function amountBands(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<{ bands: AmountBandCount[], recorded: Record<Eye, number> }> {
   const counts: Record<Eye, Map<string, number>> = { RE: new Map(), LE: new Map() }
   const recorded: Record<Eye, number> = { RE: 0, LE: 0 }
-  for (const eye of f.eye ? [f.eye] : EYES) {
+  const eyes = f.eye ? [f.eye] : EYES
+  // one query per eye, sent together: on PostgreSQL each runs on its own pooled connection
+  const perEye = await Promise.all(eyes.map((eye) => {
     const col = eye === 'RE' ? 'attempts.re_amount_error' as const : 'attempts.le_amount_error' as const
-    const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+    return applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
       .select(eb => ['attempts.cohort_id', `${col} as error`, eb.fn.countAll<number>().as('n')])
       .where(col, 'is not', null)
       .groupBy(['attempts.cohort_id', col]).execute()
-    for (const r of rows) {
+  }))
+  eyes.forEach((eye, i) => {
+    for (const r of perEye[i]!) {
       const band = bandOf(Number(r.error))
       counts[eye].set(band, (counts[eye].get(band) ?? 0) + Number(r.n))
       recorded[eye] += Number(r.n)
     }
-  }
+  })
   return {
     bands: AMOUNT_BAND_EDGES.map(b => ({ band: b.band, label: b.label, RE: counts.RE.get(b.band) ?? 0, LE: counts.LE.get(b.band) ?? 0 })),
     recorded,
@@ -114,12 +124,15 @@ export async function weeklyTrend(db: Kysely<Database>, f: ReviewFilters, scope:
   // the same expression as the indexes attempts_rv_day and attempt_slips_rv_day, so they serve the GROUP BY
   const attemptDay = sql<string>`substr(${sql.ref('attempts.submitted_at')}, 1, 10)`
   const slipDay = sql<string>`substr(${sql.ref('attempt_slips.created_at')}, 1, 10)`
-  const attemptDays = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
-    .select(eb => ['attempts.cohort_id', attemptDay.as('day'), eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempts.cohort_id', attemptDay]).execute()
-  const slipDays = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
-    .select(eb => ['attempt_slips.cohort_id', slipDay.as('day'), 'attempt_slips.code', eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempt_slips.cohort_id', slipDay, 'attempt_slips.code']).execute()
+  // the two queries are sent together (on PostgreSQL, two pooled connections)
+  const [attemptDays, slipDays] = await Promise.all([
+    applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+      .select(eb => ['attempts.cohort_id', attemptDay.as('day'), eb.fn.countAll<number>().as('n')])
+      .groupBy(['attempts.cohort_id', attemptDay]).execute(),
+    applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
+      .select(eb => ['attempt_slips.cohort_id', slipDay.as('day'), 'attempt_slips.code', eb.fn.countAll<number>().as('n')])
+      .groupBy(['attempt_slips.cohort_id', slipDay, 'attempt_slips.code']).execute(),
+  ])
   const weeks = new Map<string, TrendWeek>()
   const at = (d: string) => {
     const w = weekOf(d)

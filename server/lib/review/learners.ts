@@ -23,9 +23,18 @@ import type { ReviewScope } from './scope'
  * up exactly. A few dozen distinct keys make a few thousand groups at 200,000 attempts.
  */
 export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, LearnerCounts>> {
-  const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
-    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set']).execute()
+  // the slip sets, and the rule-swap evidence (0012): a second, small pass over the partial
+  // index that holds only the telling attempts, grouped in its own order (cohort, learner,
+  // eye); both are sent together (on PostgreSQL, two pooled connections)
+  const [rows, swaps] = await Promise.all([
+    applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
+      .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', eb.fn.countAll<number>().as('n')])
+      .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set']).execute(),
+    applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
+      .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
+      .where('attempts.rule_swap_eye', 'is not', null)
+      .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye']).execute(),
+  ])
   const out = new Map<number, LearnerCounts>()
   for (const r of rows) {
     let c = out.get(r.learner_id)
@@ -37,12 +46,6 @@ export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scop
       cohortsOf.set(r.learner_id, set)
     }
   }
-  // the rule-swap evidence (0012): a second, small pass over the partial index that holds
-  // only the telling attempts, grouped in its own order (cohort, learner, eye)
-  const swaps = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
-    .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
-    .where('attempts.rule_swap_eye', 'is not', null)
-    .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye']).execute()
   for (const r of swaps) {
     const c = out.get(r.learner_id)
     if (c && (r.rule_swap_eye === 'RE' || r.rule_swap_eye === 'LE')) c.ruleSwap[r.rule_swap_eye] += Number(r.n)

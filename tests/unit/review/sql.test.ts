@@ -10,7 +10,7 @@ import { reviewFilterQuery } from '#shared/schemas/review'
 import type { ReviewFilters } from '#shared/schemas/review'
 import { migrateToLatest, openDatabase } from '../../../db/open'
 import type { Database } from '../../../db/schema'
-import { amountBands, directionTable, reviewTotals, slipCounts, weeklyTrend } from '~~/server/lib/review/aggregates'
+import { amountBands, directionTable, reviewTotals, slipCodeCounts, slipTable, weeklyTrend } from '~~/server/lib/review/aggregates'
 import { learnerCounts } from '~~/server/lib/review/learners'
 import type { ReviewScope } from '~~/server/lib/review/scope'
 import { insertAttempts, resetSharedCase } from '../../support/reviewRows'
@@ -96,7 +96,7 @@ describe('aggregates against hand-computed counts', () => {
     const byCode = async (q: Record<string, string>, scope = all) => {
       const filters = f(q)
       const totals = await reviewTotals(db, filters, scope)
-      return { totals, counts: Object.fromEntries((await slipCounts(db, filters, scope, totals.attempts)).filter(s => s.count).map(s => [s.code, s.count])) }
+      return { totals, counts: Object.fromEntries(slipTable(await slipCodeCounts(db, filters, scope), totals.attempts).filter(s => s.count).map(s => [s.code, s.count])) }
     }
     expect(await byCode({})).toEqual({ totals: { attempts: 6, learners: 3 }, counts: { 'direction-reversed': 4, 'test-unnamed': 1, 'dial-value-as-amount': 1, 'amount-off': 1 } })
     expect(await byCode({ cohortId: String(a) }, { ...all, cohortIds: [a] })).toEqual({ totals: { attempts: 4, learners: 2 }, counts: { 'direction-reversed': 2, 'test-unnamed': 1, 'dial-value-as-amount': 1 } })
