@@ -186,40 +186,39 @@ function longStanding(rng: Rng, t: CaseTemplate): CaseDraft {
   }
 }
 
-/** Suppression of the left eye's streak while the right eye fixes. */
-function suppression(rng: Rng, t: CaseTemplate): CaseDraft {
-  const r = t.ranges
+/**
+ * Two eyes with normal torsion, a comitant vertical of a drawn size and side, and a
+ * comitant horizontal deviation, the right eye fixing — what suppression and normal
+ * cases share. The seeded draws stay in this order and the draft's fields in this
+ * order (tests/unit/engine/families-digest.test.ts); a normal case with no vertical
+ * deviation drawn has none at all (`noVertical`).
+ */
+function quietEyes(rng: Rng, r: TemplateRanges, own: Pick<CaseDraft, 'affectedEye' | 'behaviours' | 'seenEye' | 'acquired'>, zeroIsNone: boolean): CaseDraft {
   const torsion = both(constant(normalEyeTorsion(rng)), constant(normalEyeTorsion(rng)))
   const m = drawInRange(rng, r.vertical) * (rng() < 0.5 ? 1 : -1)
+  const { seenEye, ...rest } = own
   return {
     torsion,
     reported: torsion,
-    vertical: { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
+    vertical: zeroIsNone && m === 0 ? noVertical() : { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
     horizontal: comitantHorizontal(rng, r),
     fixingEye: 'RE',
-    affectedEye: 'LE',
+    affectedEye: rest.affectedEye,
     muscles: [],
-    behaviours: [t.difficulty === 'standard' ? 'one-streak-only' : 'intermittent-one-streak'],
-    seenEye: 'RE',
-    acquired: false,
+    behaviours: rest.behaviours,
+    ...(seenEye ? { seenEye } : {}),
+    acquired: rest.acquired,
   }
 }
 
+/** Suppression of the left eye's streak while the right eye fixes. */
+function suppression(rng: Rng, t: CaseTemplate): CaseDraft {
+  const behaviours: CaseDraft['behaviours'] = [t.difficulty === 'standard' ? 'one-streak-only' : 'intermittent-one-streak']
+  return quietEyes(rng, t.ranges, { affectedEye: 'LE', behaviours, seenEye: 'RE', acquired: false }, false)
+}
+
 function normalCase(rng: Rng, t: CaseTemplate): CaseDraft {
-  const r = t.ranges
-  const torsion = both(constant(normalEyeTorsion(rng)), constant(normalEyeTorsion(rng)))
-  const m = drawInRange(rng, r.vertical) * (rng() < 0.5 ? 1 : -1)
-  return {
-    torsion,
-    reported: torsion,
-    vertical: m === 0 ? noVertical() : { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
-    horizontal: comitantHorizontal(rng, r),
-    fixingEye: 'RE',
-    affectedEye: null,
-    muscles: [],
-    behaviours: [],
-    acquired: true,
-  }
+  return quietEyes(rng, t.ranges, { affectedEye: null, behaviours: [], acquired: true }, true)
 }
 
 const SINGLE: Partial<Record<Condition, Muscle>> = {
