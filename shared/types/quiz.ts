@@ -264,6 +264,9 @@ export interface QuizResultsResponse {
 }
 
 /** One quiz attempt opened for review (staff always; the student, marks only once feedback is open). */
+/** A tutor's change to one mark, as an attempt's page lists it. */
+export interface MarkOverrideView { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }
+
 export interface QuizAttemptView {
   quiz: { id: number, title: string }
   item: { id: number, position: number, prompt: string, mode: Mode, readScale: boolean, title?: string, tolerance?: number }
@@ -288,7 +291,7 @@ export interface QuizAttemptView {
   case: { id: number, mode: Mode, readScale: boolean, presentation: Presentation }
   feedbackOpen: boolean
   result: StudentItemFeedback | null
-  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
+  overrides: MarkOverrideView[]
 }
 
 /** One fundus quiz attempt opened for review (staff always; the student, marks and the reference only once feedback is open). */
@@ -307,7 +310,7 @@ export interface QuizFundusAttemptView {
   /** The picture's own disc centre and fovea per eye (with the feedback). */
   reference: Partial<Record<Eye, { disc: Point, fovea: Point }>> | null
   result: StudentFundusFeedback | null
-  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
+  overrides: MarkOverrideView[]
 }
 
 /** GET /api/quizzes/cohorts: a cohort the caller may assign. */
