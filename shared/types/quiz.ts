@@ -1,14 +1,14 @@
 // Response shapes of the quiz routes, shared by the routes and the pages.
 import type { MarkCap } from '../engine/marking'
 import type { Presentation, PatientTurnsResult } from '../engine/presentation'
-import type { Distance, Gaze, Lights, Mode, PerEye, Prism, Eye } from '../engine/types'
+import type { Mode, Eye } from '../engine/types'
 import type { NarrowedRanges } from '../schemas/casebook'
 import type { QuizCriterion, QuizItemKind, FundusItemDraft } from '../schemas/quiz'
 import type { FundusComparison, FundusEyeMarks, FundusGradeResult } from '../engine/fundus/result'
 import type { FundusPresentation } from '../engine/fundus/picture'
 import type { Point } from '../engine/fundus/geometry'
 import type { BenchDraft } from '../schemas/practice'
-import type { AttemptResult } from './practice'
+import type { AttemptResult, BenchAsLeft } from './practice'
 
 export type QuizPhase = 'draft' | 'upcoming' | 'open' | 'closed'
 export type SittingStatus = 'not-started' | 'in-progress' | 'finished'
@@ -273,15 +273,7 @@ export interface QuizAttemptView {
   student: { id: number, name: string, email?: string }
   /** The attempt that counts (the student's last on the item). */
   counts: boolean
-  attempt: {
-    id: number
-    gaze: Gaze
-    distance: Distance
-    readings: PerEye<number>
-    prisms: Prism[]
-    lights: Lights
-    record: string
-    trial: number | null
+  attempt: { id: number } & BenchAsLeft & {
     interpretation: unknown
     startedAt: string | null
     submittedAt: string

@@ -1,15 +1,16 @@
 // GET /api/admin/invitations (admin): the invitations sent, paged.
 import { pageQuery } from '#shared/schemas/common'
+import { countRows, onePage } from '~~/server/lib/data/paging'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
   const { page, pageSize } = queryAs(event, pageQuery)
   const db = await useDb()
   const base = db.selectFrom('invitations')
-  const { total } = await base.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
-  const rows = await base.leftJoin('cohorts', 'cohorts.id', 'invitations.cohort_id')
+  const total = await countRows(base)
+  const rows = await onePage(base.leftJoin('cohorts', 'cohorts.id', 'invitations.cohort_id')
     .select(['invitations.id', 'invitations.email', 'invitations.role', 'invitations.expires_at', 'invitations.used_at', 'invitations.created_at', 'cohorts.name as cohortName'])
-    .orderBy('invitations.id', 'desc').limit(pageSize).offset((page - 1) * pageSize).execute()
+    .orderBy('invitations.id', 'desc'), { page, pageSize }).execute()
   const now = Date.now()
   return {
     items: rows.map(r => ({
@@ -21,7 +22,7 @@ export default defineEventHandler(async (event) => {
       expiresAt: r.expires_at,
       state: r.used_at ? 'accepted' : Date.parse(r.expires_at) <= now ? 'expired' : 'pending',
     })),
-    total: Number(total),
+    total,
     page,
     pageSize,
   }

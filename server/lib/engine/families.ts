@@ -228,23 +228,20 @@ const SINGLE: Partial<Record<Condition, Muscle>> = {
   'ir-palsy': 'RIR',
 }
 
+/** The families drawn by a function of their own (single palsies share `singlePalsy`). */
+const DRAW: Partial<Record<Condition, (rng: Rng, t: CaseTemplate) => CaseDraft>> = {
+  'bilateral-so-palsy': bilateralSo,
+  'ted-ir-restriction': ted,
+  'skew-deviation': skew,
+  'long-standing-so-palsy': longStanding,
+  'suppression': suppression,
+  'normal': normalCase,
+}
+
 export function draftFor(rng: Rng, t: CaseTemplate): CaseDraft {
   const single = SINGLE[t.family]
   if (single) return singlePalsy(rng, single, t.ranges)
-  switch (t.family) {
-    case 'bilateral-so-palsy':
-      return bilateralSo(rng, t)
-    case 'ted-ir-restriction':
-      return ted(rng, t)
-    case 'skew-deviation':
-      return skew(rng, t)
-    case 'long-standing-so-palsy':
-      return longStanding(rng, t)
-    case 'suppression':
-      return suppression(rng, t)
-    case 'normal':
-      return normalCase(rng, t)
-    default:
-      throw new Error(`No generator for the case family "${t.family}".`)
-  }
+  const draw = DRAW[t.family]
+  if (!draw) throw new Error(`No generator for the case family "${t.family}".`)
+  return draw(rng, t)
 }

@@ -1,6 +1,7 @@
 // GET /api/admin/users (admin): `?q&role&cohortId&sort&dir&page&pageSize` → `{ items,
 // total, page, pageSize }`
 import { userListQuery } from '#shared/schemas/admin'
+import { countRows, onePage } from '~~/server/lib/data/paging'
 
 export default defineEventHandler(async (event) => {
   await requireRole(event, 'admin')
@@ -20,13 +21,11 @@ export default defineEventHandler(async (event) => {
     base = base.where('users.id', 'in', eb => eb.selectFrom('cohort_members').select('user_id').where('cohort_id', '=', query.cohortId!))
   }
 
-  const { total } = await base.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
-  const rows = await base
+  const total = await countRows(base)
+  const rows = await onePage(base
     .select(['users.id', 'users.email', 'users.name', 'users.role', 'users.disabled', 'users.created_at', 'users.last_login_at'])
     .orderBy(`users.${query.sort}`, query.dir)
-    .orderBy('users.id', 'asc')
-    .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize)
+    .orderBy('users.id', 'asc'), query)
     .execute()
 
   const ids = rows.map(r => r.id)
@@ -46,7 +45,7 @@ export default defineEventHandler(async (event) => {
       lastLoginAt: r.last_login_at,
       cohorts: memberships.filter(m => m.user_id === r.id).map(m => ({ id: m.id, name: m.name })),
     })),
-    total: Number(total),
+    total,
     page: query.page,
     pageSize: query.pageSize,
   }
