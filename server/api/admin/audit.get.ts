@@ -4,8 +4,9 @@
 // change keeps the values before under `detail.previous`
 import { pageQuery } from '#shared/schemas/common'
 import { auditActionWords, auditChangeWords, auditTargetWords } from '#shared/audit/words'
+import type { AuditPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AuditPage> => {
   await requireRole(event, 'admin')
   const { page, pageSize } = queryAs(event, pageQuery)
   const db = await useDb()

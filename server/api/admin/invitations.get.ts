@@ -1,8 +1,9 @@
 // GET /api/admin/invitations (admin): the invitations sent, paged.
 import { pageQuery } from '#shared/schemas/common'
 import { countRows, onePage } from '~~/server/lib/data/paging'
+import type { AdminInvitationPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AdminInvitationPage> => {
   await requireRole(event, 'admin')
   const { page, pageSize } = queryAs(event, pageQuery)
   const db = await useDb()

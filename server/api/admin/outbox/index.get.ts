@@ -1,7 +1,8 @@
 // GET /api/admin/outbox (admin): caught mail and the retry queue, paged.
 import { pageQuery } from '#shared/schemas/common'
+import type { OutboxPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<OutboxPage> => {
   await requireRole(event, 'admin')
   const { page, pageSize } = queryAs(event, pageQuery)
   const db = await useDb()

@@ -2,8 +2,9 @@
 // total, page, pageSize }`
 import { userListQuery } from '#shared/schemas/admin'
 import { countRows, onePage } from '~~/server/lib/data/paging'
+import type { AdminUserPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AdminUserPage> => {
   await requireRole(event, 'admin')
   const query = queryAs(event, userListQuery)
   const db = await useDb()
