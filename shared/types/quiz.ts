@@ -307,3 +307,6 @@ export interface QuizFundusAttemptView {
 
 /** GET /api/quizzes/cohorts: a cohort the caller may assign. */
 export interface CohortChoice { id: number, name: string }
+
+/** POST /api/quizzes/:id/release. */
+export interface QuizReleased { releasedAt: string | null, mailed: number, gradesQueued?: number, message: string }
