@@ -8,7 +8,7 @@ import type { FundusComparison, FundusEyeMarks, FundusGradeResult } from '../eng
 import type { FundusPresentation } from '../engine/fundus/picture'
 import type { Point } from '../engine/fundus/geometry'
 import type { BenchDraft } from '../schemas/practice'
-import type { AttemptResult, BenchAsLeft } from './practice'
+import type { AttemptResult, BenchAsLeft, CaseTruthView } from './practice'
 
 export type QuizPhase = 'draft' | 'upcoming' | 'open' | 'closed'
 export type SittingStatus = 'not-started' | 'in-progress' | 'finished'
@@ -310,3 +310,34 @@ export interface CohortChoice { id: number, name: string }
 
 /** POST /api/quizzes/:id/release. */
 export interface QuizReleased { releasedAt: string | null, mailed: number, gradesQueued?: number, message: string }
+
+/** GET /api/quizzes/:id/items/:itemId/cases/:studentId on a double Maddox rod item: the student's patient, with its truth. */
+export interface StaffDmrCasePreview {
+  kind: 'dmr'
+  student: { id: number, name: string }
+  item: { id: number, position: number, prompt: string, mode: Mode, readScale: boolean }
+  /** Whether the student has opened it (else it is the case their seed derives). */
+  stored: boolean
+  caseId: number | null
+  seed: string
+  presentation: Presentation
+  draft: BenchDraft | null
+  truth: CaseTruthView
+}
+
+/** The same on a fundus item: the picture, the student's saved marks, the reference points and angles. */
+export interface StaffFundusCasePreview {
+  kind: 'fundus'
+  student: { id: number, name: string }
+  item: { id: number, position: number, prompt: string, eyes: Eye[] }
+  stored: boolean
+  caseId: number | null
+  seed: string | null
+  presentation: FundusPresentation | null
+  photo: FundusItemImage | null
+  draft: (FundusItemDraft & { savedAt: string }) | null
+  reference: Partial<Record<Eye, { disc: Point, fovea: Point }>>
+  angles: Partial<Record<Eye, number | null>>
+}
+
+export type StaffCasePreview = StaffDmrCasePreview | StaffFundusCasePreview
