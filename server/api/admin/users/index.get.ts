@@ -24,7 +24,7 @@ export default defineEventHandler(async (event): Promise<AdminUserPage> => {
 
   const total = await countRows(base)
   const rows = await onePage(base
-    .select(['users.id', 'users.email', 'users.name', 'users.role', 'users.disabled', 'users.created_at', 'users.last_login_at'])
+    .select(['users.id', 'users.email', 'users.name', 'users.role', 'users.disabled', 'users.created_at as createdAt', 'users.last_login_at as lastLoginAt'])
     .orderBy(`users.${query.sort}`, query.dir)
     .orderBy('users.id', 'asc'), query)
     .execute()
@@ -36,16 +36,7 @@ export default defineEventHandler(async (event): Promise<AdminUserPage> => {
     : []
 
   return {
-    items: rows.map(r => ({
-      id: r.id,
-      email: r.email,
-      name: r.name,
-      role: r.role,
-      disabled: r.disabled === 1,
-      createdAt: r.created_at,
-      lastLoginAt: r.last_login_at,
-      cohorts: memberships.filter(m => m.user_id === r.id).map(m => ({ id: m.id, name: m.name })),
-    })),
+    items: rows.map(r => ({ ...r, disabled: r.disabled === 1, cohorts: memberships.filter(m => m.user_id === r.id).map(m => ({ id: m.id, name: m.name })) })),
     total,
     page: query.page,
     pageSize: query.pageSize,
