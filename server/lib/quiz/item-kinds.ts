@@ -72,16 +72,23 @@ export type AnyItemKind = ItemKind<QuizItemKind, QuizAttemptBase, QuizItemConfig
 /** The criteria a written double Maddox rod record marks (action and reason only with a three-step case). */
 const RECORD_CRITERIA: QuizCriterion[] = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance']
 
+/** A kind's reads of its own attempt and override tables. */
+function storedIn<T extends AttemptTable>(attemptTable: T, overrideTable: OverrideTable) {
+  return {
+    attemptTable,
+    overrideTable,
+    attempt: (db: Kysely<Database>, key: { quizId: number, attemptId: number, learnerId?: number }) => quizAttemptById(db, attemptTable, key),
+    attempts: (db: Kysely<Database>, quizId: number, learnerId?: number) => quizAttemptsOf(db, attemptTable, quizId, learnerId),
+    overrides: (db: Kysely<Database>, quizId: number) => markOverridesOf(db, overrideTable, quizId),
+  }
+}
+
 const dmr: ItemKind<'dmr', AttemptRow, DmrItemConfig, QuizAttemptView> = {
   kind: 'dmr',
-  attemptTable: 'attempts',
-  overrideTable: 'quiz_mark_overrides',
+  ...storedIn('attempts', 'quiz_mark_overrides'),
   auditTarget: 'attempt',
   attemptPath: 'attempts',
-  attempt: (db, key) => quizAttemptById(db, 'attempts', key),
-  attempts: (db, quizId, learnerId) => quizAttemptsOf(db, 'attempts', quizId, learnerId),
   drafts: benchDraftsOf,
-  overrides: (db, quizId) => markOverridesOf(db, 'quiz_mark_overrides', quizId),
   marks: effectiveMarks,
   slips: attempt => (JSON.parse(attempt.slips_json) as { code: string }[]).map(s => s.code),
   nominalPossible: (config, interpretationOn) => RECORD_CRITERIA.reduce((a, c) => a + config.weights[c], 0) + (interpretationOn ? config.weights.interpretation : 0),
@@ -92,14 +99,10 @@ const dmr: ItemKind<'dmr', AttemptRow, DmrItemConfig, QuizAttemptView> = {
 
 const fundus: ItemKind<'fundus', FundusAttemptRow, FundusItemConfig, QuizFundusAttemptView> = {
   kind: 'fundus',
-  attemptTable: 'fundus_attempts',
-  overrideTable: 'quiz_fundus_overrides',
+  ...storedIn('fundus_attempts', 'quiz_fundus_overrides'),
   auditTarget: 'fundus-attempt',
   attemptPath: 'fundus-attempts',
-  attempt: (db, key) => quizAttemptById(db, 'fundus_attempts', key),
-  attempts: (db, quizId, learnerId) => quizAttemptsOf(db, 'fundus_attempts', quizId, learnerId),
   drafts: fundusDraftsOf,
-  overrides: (db, quizId) => markOverridesOf(db, 'quiz_fundus_overrides', quizId),
   marks: (attempt, config, _interpretationOn, overrides) => applyOverrides(fundusMarksOf(JSON.parse(attempt.result_json) as FundusGradeResult, config.weights), overrides),
   // slips are the double Maddox rod record's; a fundus item has marks, not record slips
   slips: () => [],
@@ -110,7 +113,7 @@ const fundus: ItemKind<'fundus', FundusAttemptRow, FundusItemConfig, QuizFundusA
   view: quizFundusAttemptView,
   studentFeedback: async (db, quiz, item, config, last, studentId) => {
     const caseRow = config.source.type === 'photo' ? null : (await quizCaseRow(db, quiz.id, item.id, studentId)) ?? null
-    const overrides = await markOverridesOf(db, 'quiz_fundus_overrides', quiz.id)
+    const overrides = await fundus.overrides(db, quiz.id)
     return { fundusFeedback: fundusFeedbackOf(last, config, fundusItemPictures(config, caseRow, last.fundus_version ?? undefined), overrides) }
   },
 }
