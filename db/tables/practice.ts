@@ -86,7 +86,7 @@ export interface AttemptsTable {
   read_as: string | null
   model_record: string | null
   explanation_json: string | null
-  /** 0007: the attempt's distinct slips as one sorted key (shared/review/slipSet.ts); '' when clean. */
+  /** 0007: the attempt's distinct slips as one sorted key (shared/review/slip-set.ts); '' when clean. */
   slip_set: string
   /**
    * 0012: the eye whose direction was reversed while the other eye (true torsion 1° or

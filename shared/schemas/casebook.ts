@@ -1,7 +1,7 @@
 // Bodies of the casebook routes: tutors' case templates (an engine template with
 // narrower ranges and a tolerance) and hand-authored exact cases.
 import { z } from 'zod'
-import { caseSpecSchema } from '../engine/caseSpec'
+import { caseSpecSchema } from '../engine/case-spec'
 import { modeSchema, seedSchema, templateIdSchema, toleranceSchema } from '../engine/schemas'
 
 const titleField = z.string({ error: 'Give a title.' })

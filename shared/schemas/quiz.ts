@@ -48,14 +48,17 @@ export type Weights = Partial<Record<QuizCriterion, number>>
 const promptField = z.string({ error: 'The prompt must be text.' })
   .trim()
   .max(1000, { error: 'Keep the prompt under 1000 characters.' })
+const newItemPrompt = promptField.default('')
+
+/** Each student gets their own case derived from the quiz seed (generated sources only). */
+const perStudentField = z.boolean({ error: 'Per student must be true or false.' }).default(true)
 
 /** A double Maddox rod item: one case (per student, or one for all) on the bench. */
 export const dmrItemBody = z.object({
   kind: z.literal('dmr'),
-  prompt: promptField.default(''),
+  prompt: newItemPrompt,
   source: caseSourceSchema,
-  /** Each student gets their own case derived from the quiz seed (templates only). */
-  perStudent: z.boolean({ error: 'Per student must be true or false.' }).default(true),
+  perStudent: perStudentField,
   mode: modeSchema.default('patient-turns'),
   /** The learner must read the dial scale themselves (no figure shown). */
   readScale: z.boolean({ error: 'Read the scale must be true or false.' }).default(false),
@@ -84,9 +87,9 @@ const fundusToleranceSchema = z.number({ error: 'The tolerance must be a number 
  */
 export const fundusItemBody = z.object({
   kind: z.literal('fundus'),
-  prompt: promptField.default(''),
+  prompt: newItemPrompt,
   source: fundusSourceSchema,
-  perStudent: z.boolean({ error: 'Per student must be true or false.' }).default(true),
+  perStudent: perStudentField,
   /** Default 1° (the practice grading's). */
   tolerance: fundusToleranceSchema.optional(),
   weights: weightsSchema.optional(),

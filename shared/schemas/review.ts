@@ -1,6 +1,6 @@
 // Query and body schemas for the slip-patterns review (pages and routes share them).
 import { z } from 'zod'
-import { CONDITIONS } from '#shared/engine/caseSpec'
+import { CONDITIONS } from '#shared/engine/case-spec'
 import { SLIP_CODES } from '#shared/engine/slips'
 import { PATTERN_CODES } from '#shared/review/patterns'
 

@@ -1,6 +1,6 @@
 // The casebook as GET /api/casebook answers it (engine templates with their published
 // ranges, the tutor's narrowed templates and exact cases, default tolerance and weights).
-import type { CaseSpec } from '#shared/engine/caseSpec'
+import type { CaseSpec } from '#shared/engine/case-spec'
 import type { Presentation } from '#shared/engine/presentation'
 import type { NarrowedRanges } from '#shared/schemas/casebook'
 import type { QuizCriterion } from '#shared/schemas/quiz'

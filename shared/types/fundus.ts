@@ -64,3 +64,6 @@ export interface PhotoFundusAttemptReply {
 
 /** GET /api/fundus/photos/:id — the photograph and the caller's attempts on it. */
 export interface FundusPhotoReply { photo: FundusPhotoView, attempts: FundusAttemptSummary[], normalRanges: PerEye<NormalRange> }
+
+/** DELETE /api/fundus/photos/:id. */
+export interface FundusPhotoDeleted { deleted: number }

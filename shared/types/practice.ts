@@ -110,29 +110,41 @@ export interface PracticeHistory {
   pageSize: number
 }
 
+/** The bench as the learner left it on submitting: gaze, distance, readings, prisms, lights, the record and the trial read. */
+export interface BenchAsLeft {
+  gaze: Gaze
+  distance: Distance
+  readings: PerEye<number>
+  prisms: Prism[]
+  lights: Lights
+  record: string
+  trial: number | null
+}
+
 export interface AttemptReplay {
-  attempt: {
-    gaze: Gaze
-    distance: Distance
-    readings: PerEye<number>
-    prisms: Prism[]
-    lights: Lights
-    record: string
-    trial: number | null
-    submittedAt: string
-  }
+  attempt: BenchAsLeft & { submittedAt: string }
   result: Omit<AttemptResult, 'attemptId'>
   case: { id: number, title: string, mode: Mode, readScale: boolean, presentation: Presentation }
 }
 
-export interface RecordCheckResult {
+/**
+ * A written record graded: how it was read, the marks, the score and points after the
+ * cap of critical slips, the slips, the model record and the explanation. `M` is the
+ * mark: the grader's own (server/lib/engine/grader.ts `GradeResult`) or as shown.
+ */
+export interface RecordGrade<M = MarkView> {
   readAs: string
   parsed: ParsedRecord
-  marks: MarkView[]
+  marks: M[]
+  /** Weighted score, 0–1, after the cap of critical slips. */
   score: number
   points: { earned: number, possible: number }
+  /** Set when a critical slip holds the score to at most half. */
   cap: MarkCap | null
   slips: Slip[]
   modelRecord: string
   explanation: string[]
 }
+
+/** `POST /api/practice/record-check`: a record checked against a case's finding. */
+export type RecordCheckResult = RecordGrade

@@ -1,14 +1,14 @@
 // Response shapes of the quiz routes, shared by the routes and the pages.
 import type { MarkCap } from '../engine/marking'
 import type { Presentation, PatientTurnsResult } from '../engine/presentation'
-import type { Distance, Gaze, Lights, Mode, PerEye, Prism, Eye } from '../engine/types'
+import type { Mode, Eye } from '../engine/types'
 import type { NarrowedRanges } from '../schemas/casebook'
 import type { QuizCriterion, QuizItemKind, FundusItemDraft } from '../schemas/quiz'
 import type { FundusComparison, FundusEyeMarks, FundusGradeResult } from '../engine/fundus/result'
 import type { FundusPresentation } from '../engine/fundus/picture'
 import type { Point } from '../engine/fundus/geometry'
 import type { BenchDraft } from '../schemas/practice'
-import type { AttemptResult } from './practice'
+import type { AttemptResult, BenchAsLeft, CaseTruthView } from './practice'
 
 export type QuizPhase = 'draft' | 'upcoming' | 'open' | 'closed'
 export type SittingStatus = 'not-started' | 'in-progress' | 'finished'
@@ -264,21 +264,16 @@ export interface QuizResultsResponse {
 }
 
 /** One quiz attempt opened for review (staff always; the student, marks only once feedback is open). */
+/** A tutor's change to one mark, as an attempt's page lists it. */
+export interface MarkOverrideView { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }
+
 export interface QuizAttemptView {
   quiz: { id: number, title: string }
   item: { id: number, position: number, prompt: string, mode: Mode, readScale: boolean, title?: string, tolerance?: number }
   student: { id: number, name: string, email?: string }
   /** The attempt that counts (the student's last on the item). */
   counts: boolean
-  attempt: {
-    id: number
-    gaze: Gaze
-    distance: Distance
-    readings: PerEye<number>
-    prisms: Prism[]
-    lights: Lights
-    record: string
-    trial: number | null
+  attempt: { id: number } & BenchAsLeft & {
     interpretation: unknown
     startedAt: string | null
     submittedAt: string
@@ -288,7 +283,7 @@ export interface QuizAttemptView {
   case: { id: number, mode: Mode, readScale: boolean, presentation: Presentation }
   feedbackOpen: boolean
   result: StudentItemFeedback | null
-  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
+  overrides: MarkOverrideView[]
 }
 
 /** One fundus quiz attempt opened for review (staff always; the student, marks and the reference only once feedback is open). */
@@ -307,8 +302,42 @@ export interface QuizFundusAttemptView {
   /** The picture's own disc centre and fovea per eye (with the feedback). */
   reference: Partial<Record<Eye, { disc: Point, fovea: Point }>> | null
   result: StudentFundusFeedback | null
-  overrides: { criterion: string, previousScore: number, score: number, reason: string, by: string | null, at: string }[]
+  overrides: MarkOverrideView[]
 }
 
 /** GET /api/quizzes/cohorts: a cohort the caller may assign. */
 export interface CohortChoice { id: number, name: string }
+
+/** POST /api/quizzes/:id/release. */
+export interface QuizReleased { releasedAt: string | null, mailed: number, gradesQueued?: number, message: string }
+
+/** GET /api/quizzes/:id/items/:itemId/cases/:studentId on a double Maddox rod item: the student's patient, with its truth. */
+export interface StaffDmrCasePreview {
+  kind: 'dmr'
+  student: { id: number, name: string }
+  item: { id: number, position: number, prompt: string, mode: Mode, readScale: boolean }
+  /** Whether the student has opened it (else it is the case their seed derives). */
+  stored: boolean
+  caseId: number | null
+  seed: string
+  presentation: Presentation
+  draft: BenchDraft | null
+  truth: CaseTruthView
+}
+
+/** The same on a fundus item: the picture, the student's saved marks, the reference points and angles. */
+export interface StaffFundusCasePreview {
+  kind: 'fundus'
+  student: { id: number, name: string }
+  item: { id: number, position: number, prompt: string, eyes: Eye[] }
+  stored: boolean
+  caseId: number | null
+  seed: string | null
+  presentation: FundusPresentation | null
+  photo: FundusItemImage | null
+  draft: (FundusItemDraft & { savedAt: string }) | null
+  reference: Partial<Record<Eye, { disc: Point, fovea: Point }>>
+  angles: Partial<Record<Eye, number | null>>
+}
+
+export type StaffCasePreview = StaffDmrCasePreview | StaffFundusCasePreview

@@ -130,3 +130,6 @@ export interface ReviewOptions {
 
 /** GET /api/practice-sets (student): one set a tutor sent; case ids only. */
 export interface AssignedPracticeSet { id: number, title: string, note: string | null, mode: string, sentAt: string, sender: string | null, cases: { id: number, number: number, attempted: boolean }[], done: number }
+
+/** POST /api/review/practice-sets: the set made. */
+export interface PracticeSetMade { id: number, title: string, learners: number, casesPerLearner: number }

@@ -5,7 +5,7 @@ import type { Insertable, Kysely } from 'kysely'
 import type { AttemptsTable, Database } from '../../db/schema'
 import { ruleSwapEvidence } from '../../shared/engine/slips'
 import type { Slip } from '../../shared/engine/slips'
-import { slipSetOf } from '../../shared/review/slipSet'
+import { slipSetOf } from '../../shared/review/slip-set'
 
 export interface RowSlip { code: string, eye?: 'RE' | 'LE' }
 

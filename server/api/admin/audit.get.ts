@@ -3,13 +3,15 @@
 // total, page, pageSize }` — `words` is the row in plain words for the page; a quiz
 // change keeps the values before under `detail.previous`
 import { pageQuery } from '#shared/schemas/common'
+import { countRows } from '~~/server/lib/data/paging'
 import { auditActionWords, auditChangeWords, auditTargetWords } from '#shared/audit/words'
+import type { AuditPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AuditPage> => {
   await requireRole(event, 'admin')
   const { page, pageSize } = queryAs(event, pageQuery)
   const db = await useDb()
-  const { total } = await db.selectFrom('audit_log').select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
+  const total = await countRows(db.selectFrom('audit_log'))
   const rows = await db.selectFrom('audit_log').leftJoin('users', 'users.id', 'audit_log.actor_id')
     .select(['audit_log.id', 'audit_log.action', 'audit_log.target_type', 'audit_log.target_id', 'audit_log.detail', 'audit_log.created_at', 'users.name as actorName'])
     .orderBy('audit_log.id', 'desc').limit(pageSize).offset((page - 1) * pageSize).execute()
@@ -60,7 +62,7 @@ export default defineEventHandler(async (event) => {
         changes: auditChangeWords(r.action, detail, names),
       },
     })),
-    total: Number(total),
+    total,
     page,
     pageSize,
   }

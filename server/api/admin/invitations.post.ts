@@ -2,8 +2,9 @@
 // (the name, when given, is offered on the acceptance form).
 import { inviteBody } from '#shared/schemas/admin'
 import { createInvitation } from '~~/server/lib/roster/invitations'
+import type { InvitationSent } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<InvitationSent> => {
   const admin = await requireRole(event, 'admin')
   const body = await readBodyAs(event, inviteBody)
   const db = await useDb()

@@ -1,5 +1,7 @@
 // GET /api/admin/overview (admin): counts for the admin home
-export default defineEventHandler(async (event) => {
+import type { AdminOverview } from '#shared/types/admin'
+
+export default defineEventHandler(async (event): Promise<AdminOverview> => {
   await requireRole(event, 'admin')
   const db = await useDb()
   const roles = await db.selectFrom('users').select(['role', eb => eb.fn.countAll<number>().as('n')]).groupBy('role').execute()

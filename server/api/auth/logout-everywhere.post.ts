@@ -2,12 +2,13 @@
 // ends every session of the signed-in person, this one included (*Sign out everywhere*
 // in the header)
 import { logoutEverywhereBody } from '#shared/schemas/auth'
+import type { SignedOutEverywhere } from '#shared/types/admin'
 
 // Sign out everywhere: ends every session of the signed-in person, this one
 // included. The body must say so ({ "everywhere": true }), so a stray POST
 // changes nothing.
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<SignedOutEverywhere> => {
   const user = await requireSignedIn(event)
   await readBodyAs(event, logoutEverywhereBody)
   const db = await useDb()

@@ -1,5 +1,7 @@
 // Signing out revokes this session on the server, not only the browser's cookie.
-export default defineEventHandler(async (event) => {
+import type { OkReply } from '#shared/types/common'
+
+export default defineEventHandler(async (event): Promise<OkReply> => {
   await endSession(event)
   return { ok: true }
 })

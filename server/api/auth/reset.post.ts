@@ -2,6 +2,7 @@
 // simultaneous uses exactly one succeeds); ends every session of that person; `400`
 // naming `password` and saying why when the password is refused (see *Passwords*)
 import { resetBody } from '#shared/schemas/auth'
+import type { OkMessage } from '#shared/types/common'
 
 function gone(state: string) {
   return createError({
@@ -12,7 +13,7 @@ function gone(state: string) {
   })
 }
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<OkMessage> => {
   const { token, password } = await readBodyAs(event, resetBody)
   const db = await useDb()
   const reset = await db.selectFrom('password_resets').selectAll().where('token_hash', '=', hashToken(token)).executeTakeFirst()

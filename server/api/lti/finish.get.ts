@@ -7,7 +7,7 @@ import { nextPath } from '~~/server/lib/lti/flow'
 import { LtiRefusal, refusalPage } from '~~/server/lib/lti/html'
 import { STATE_COOKIE_PREFIX } from '~~/server/lib/lti/launch'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<string | void> => {
   const db = await useDb()
   try {
     const id = getQuery(event).launch

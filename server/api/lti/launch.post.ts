@@ -4,7 +4,7 @@ import { LtiRefusal, refusalPage } from '~~/server/lib/lti/html'
 import { readForm } from '~~/server/lib/lti/flow'
 import { storeLaunch, verifyLaunch } from '~~/server/lib/lti/launch'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<string | void> => {
   const db = await useDb()
   try {
     const form = await readForm(event)

@@ -1,4 +1,4 @@
 // OIDC third-party initiated login (LTI Core 1.3 §4.1), by a form POST from the platform.
 import { answerLogin } from '~~/server/lib/lti/flow'
 
-export default defineEventHandler(async event => answerLogin(event, await useDb(), siteOrigin()))
+export default defineEventHandler(async (event): Promise<string | void> => answerLogin(event, await useDb(), siteOrigin()))

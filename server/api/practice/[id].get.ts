@@ -6,6 +6,7 @@ import { caseIdParams } from '#shared/schemas/practice'
 import type { PracticeCaseDetail } from '#shared/types/practice'
 import { caseTurns, findOwnedCase, practiceCaseView, regenerateCase } from '~~/server/lib/practice/cases'
 import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
+import { practiceAttemptsOnCase } from '~~/server/lib/data/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeCaseDetail> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
@@ -14,9 +15,7 @@ export default defineEventHandler(async (event): Promise<PracticeCaseDetail> => 
   const row = await findOwnedCase(db, id, user.id)
   if (!row) notFound('That practice case')
   const patient = regenerateCase(row)
-  const attempts = await db.selectFrom('attempts').selectAll()
-    .where('case_id', '=', row.id).where('learner_id', '=', user.id).where('kind', '=', 'practice')
-    .orderBy('id').execute()
+  const attempts = await practiceAttemptsOnCase(db, row.id, user.id)
   const turns = await caseTurns(db, row.id)
   return {
     ...practiceCaseView(row, patient, attempts.length > 0),

@@ -4,22 +4,16 @@ import { practiceHistoryQuery } from '#shared/schemas/practice'
 import type { PracticeHistory } from '#shared/types/practice'
 import { getCaseTemplate } from '~~/server/lib/engine/templates'
 import { baseTemplateId } from '~~/server/lib/practice/templates'
+import { practiceHistoryPage } from '~~/server/lib/data/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeHistory> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
   const query = queryAs(event, practiceHistoryQuery)
   const db = await useDb()
-  let base = db.selectFrom('attempts').where('learner_id', '=', user.id).where('kind', '=', 'practice')
-  if (query.template) {
-    const base_ = baseTemplateId(query.template)
-    base = base.where('template_id', 'in', query.template === base_ ? [`${base_}-standard`, `${base_}-challenging`] : [query.template])
-  }
-  const { total } = await base.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
-  const rows = await base
-    .select(['id', 'case_id', 'submitted_at', 'template_id', 'truth_json', 'mode', 'score', 'slips_json'])
-    .orderBy('submitted_at', 'desc').orderBy('id', 'desc')
-    .limit(query.pageSize).offset((query.page - 1) * query.pageSize)
-    .execute()
+  // a base template id means both its difficulties
+  const base = query.template ? baseTemplateId(query.template) : null
+  const templateIds = !query.template ? null : query.template === base ? [`${base}-standard`, `${base}-challenging`] : [query.template]
+  const { rows, total } = await practiceHistoryPage(db, user.id, templateIds, query)
   return {
     items: rows.map(r => ({
       attemptId: r.id,
@@ -30,7 +24,7 @@ export default defineEventHandler(async (event): Promise<PracticeHistory> => {
       score: r.score,
       slips: JSON.parse(r.slips_json),
     })),
-    total: Number(total),
+    total,
     page: query.page,
     pageSize: query.pageSize,
   }

@@ -7,8 +7,9 @@ import { quizCreateBody } from '#shared/schemas/quiz'
 import { assignableCohortIds } from '~~/server/lib/quiz/access'
 import { newQuizSeed } from '~~/server/lib/quiz/seeds'
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const body = await readBodyAs(event, quizCreateBody)
   const db = await useDb()

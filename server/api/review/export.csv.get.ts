@@ -15,7 +15,7 @@ import { learnerInScope, reviewScopeFor } from '~~/server/lib/review/scope'
 const tableQuery = z.object({ table: z.enum(EXPORT_TABLES, { error: `Table must be one of ${EXPORT_TABLES.join(', ')}.` }) })
 
 /** The current view of the review page as CSV: one table, the same filters. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<string> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const { table } = queryAs(event, tableQuery.loose())
   const db = await useDb()

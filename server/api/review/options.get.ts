@@ -3,7 +3,7 @@
 import { REVIEW_ROLES } from '#shared/auth/roles'
 import type { ReviewOptions } from '#shared/types/review'
 import { CASE_TEMPLATES } from '~~/server/lib/engine/templates'
-import { CONDITIONS } from '#shared/engine/caseSpec'
+import { CONDITIONS } from '#shared/engine/case-spec'
 import { visibleCohorts } from '~~/server/lib/review/scope'
 
 /** What the review filters can offer this caller: their cohorts, case templates, conditions, quizzes attempted. */

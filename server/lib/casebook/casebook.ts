@@ -2,7 +2,7 @@
 // tutors' narrowed templates and hand-authored exact cases.
 import type { Kysely } from 'kysely'
 import type { SessionUserData } from '#shared/auth/roles'
-import type { CaseSpec } from '#shared/engine/caseSpec'
+import type { CaseSpec } from '#shared/engine/case-spec'
 import type { NarrowedRanges } from '#shared/schemas/casebook'
 import type { Database } from '~~/db/schema'
 import { CASE_TEMPLATES, getCaseTemplate } from '~~/server/lib/engine/templates'

@@ -186,40 +186,39 @@ function longStanding(rng: Rng, t: CaseTemplate): CaseDraft {
   }
 }
 
-/** Suppression of the left eye's streak while the right eye fixes. */
-function suppression(rng: Rng, t: CaseTemplate): CaseDraft {
-  const r = t.ranges
+/**
+ * Two eyes with normal torsion, a comitant vertical of a drawn size and side, and a
+ * comitant horizontal deviation, the right eye fixing — what suppression and normal
+ * cases share. The seeded draws stay in this order and the draft's fields in this
+ * order (tests/unit/engine/families-digest.test.ts); a normal case with no vertical
+ * deviation drawn has none at all (`noVertical`).
+ */
+function quietEyes(rng: Rng, r: TemplateRanges, own: Pick<CaseDraft, 'affectedEye' | 'behaviours' | 'seenEye' | 'acquired'>, zeroIsNone: boolean): CaseDraft {
   const torsion = both(constant(normalEyeTorsion(rng)), constant(normalEyeTorsion(rng)))
   const m = drawInRange(rng, r.vertical) * (rng() < 0.5 ? 1 : -1)
+  const { seenEye, ...rest } = own
   return {
     torsion,
     reported: torsion,
-    vertical: { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
+    vertical: zeroIsNone && m === 0 ? noVertical() : { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
     horizontal: comitantHorizontal(rng, r),
     fixingEye: 'RE',
-    affectedEye: 'LE',
+    affectedEye: rest.affectedEye,
     muscles: [],
-    behaviours: [t.difficulty === 'standard' ? 'one-streak-only' : 'intermittent-one-streak'],
-    seenEye: 'RE',
-    acquired: false,
+    behaviours: rest.behaviours,
+    ...(seenEye ? { seenEye } : {}),
+    acquired: rest.acquired,
   }
 }
 
+/** Suppression of the left eye's streak while the right eye fixes. */
+function suppression(rng: Rng, t: CaseTemplate): CaseDraft {
+  const behaviours: CaseDraft['behaviours'] = [t.difficulty === 'standard' ? 'one-streak-only' : 'intermittent-one-streak']
+  return quietEyes(rng, t.ranges, { affectedEye: 'LE', behaviours, seenEye: 'RE', acquired: false }, false)
+}
+
 function normalCase(rng: Rng, t: CaseTemplate): CaseDraft {
-  const r = t.ranges
-  const torsion = both(constant(normalEyeTorsion(rng)), constant(normalEyeTorsion(rng)))
-  const m = drawInRange(rng, r.vertical) * (rng() < 0.5 ? 1 : -1)
-  return {
-    torsion,
-    reported: torsion,
-    vertical: m === 0 ? noVertical() : { gazes: constant(m), headTilt: { right: m, left: m }, supine: m },
-    horizontal: comitantHorizontal(rng, r),
-    fixingEye: 'RE',
-    affectedEye: null,
-    muscles: [],
-    behaviours: [],
-    acquired: true,
-  }
+  return quietEyes(rng, t.ranges, { affectedEye: null, behaviours: [], acquired: true }, true)
 }
 
 const SINGLE: Partial<Record<Condition, Muscle>> = {
@@ -229,23 +228,20 @@ const SINGLE: Partial<Record<Condition, Muscle>> = {
   'ir-palsy': 'RIR',
 }
 
+/** The families drawn by a function of their own (single palsies share `singlePalsy`). */
+const DRAW: Partial<Record<Condition, (rng: Rng, t: CaseTemplate) => CaseDraft>> = {
+  'bilateral-so-palsy': bilateralSo,
+  'ted-ir-restriction': ted,
+  'skew-deviation': skew,
+  'long-standing-so-palsy': longStanding,
+  'suppression': suppression,
+  'normal': normalCase,
+}
+
 export function draftFor(rng: Rng, t: CaseTemplate): CaseDraft {
   const single = SINGLE[t.family]
   if (single) return singlePalsy(rng, single, t.ranges)
-  switch (t.family) {
-    case 'bilateral-so-palsy':
-      return bilateralSo(rng, t)
-    case 'ted-ir-restriction':
-      return ted(rng, t)
-    case 'skew-deviation':
-      return skew(rng, t)
-    case 'long-standing-so-palsy':
-      return longStanding(rng, t)
-    case 'suppression':
-      return suppression(rng, t)
-    case 'normal':
-      return normalCase(rng, t)
-    default:
-      throw new Error(`No generator for the case family "${t.family}".`)
-  }
+  const draw = DRAW[t.family]
+  if (!draw) throw new Error(`No generator for the case family "${t.family}".`)
+  return draw(rng, t)
 }

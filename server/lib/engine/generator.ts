@@ -2,8 +2,8 @@
 // version give the same patient forever: store GENERATOR_VERSION with every case
 // and bump it whenever a change here would alter a generated number.
 
-import { caseSpecSchema } from '#shared/engine/caseSpec'
-import type { CaseSpec, CaseSpecParsed } from '#shared/engine/caseSpec'
+import { caseSpecSchema } from '#shared/engine/case-spec'
+import type { CaseSpec, CaseSpecParsed } from '#shared/engine/case-spec'
 import { makeRng, round1, uniform } from '#shared/engine/random'
 import type { Gaze, PerEye } from '#shared/engine/types'
 import { GAZES } from '#shared/engine/types'

@@ -8,7 +8,6 @@ import { readingToTorsion, torsionToReading, wrapAxisDifference } from '#shared/
 import { parseRecord, readAsLine, GAZE_LABEL } from '#shared/engine/parser'
 import type { EyeRecord, GazeSection, ParsedRecord } from '#shared/engine/parser'
 import { cappedPoints, hasDirection, misleadingLine } from '#shared/engine/marking'
-import type { MarkCap } from '#shared/engine/marking'
 import { SLIP_INFO, slipExplanation } from '#shared/engine/slips'
 import type { Slip, SlipCode } from '#shared/engine/slips'
 import type { Distance, Eye, Gaze, PerEye } from '#shared/engine/types'
@@ -16,6 +15,7 @@ import { EYES, otherEye } from '#shared/engine/types'
 import { NOT_PERFORMED_RECORD, modelRecord } from './model-record'
 import { eyesSwapped, judgeEye, likeliestEye } from './grade-eyes'
 import type { EyeVerdict } from './grade-eyes'
+import type { RecordGrade } from '#shared/types/practice'
 import { degWords, eyeWords, findingWords, wroteWords } from './grade-words'
 
 export const GRADE_CRITERIA = ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason'] as const
@@ -51,19 +51,8 @@ export interface GradeMark {
   reason: string
 }
 
-export interface GradeResult {
-  readAs: string
-  parsed: ParsedRecord
-  marks: GradeMark[]
-  /** Weighted score, 0–1, after the cap of critical slips. */
-  score: number
-  points: { earned: number, possible: number }
-  /** Set when a critical slip holds the score to at most half. */
-  cap: MarkCap | null
-  slips: Slip[]
-  modelRecord: string
-  explanation: string[]
-}
+/** A record graded, with the grader's own marks. */
+export type GradeResult = RecordGrade<GradeMark>
 
 export interface RecordGradeInput {
   record: string

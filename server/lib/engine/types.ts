@@ -1,7 +1,7 @@
 // The truth about a case. Server-only: none of this may reach the browser except
 // through toPresentation (presentation.ts), which strips everything that labels it.
 
-import type { Behaviour, Condition } from '#shared/engine/caseSpec'
+import type { Behaviour, Condition } from '#shared/engine/case-spec'
 import type { Difficulty, Eye, Gaze, Muscle, PerDistance, PerEye } from '#shared/engine/types'
 
 export type { Behaviour, Condition }

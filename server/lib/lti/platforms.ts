@@ -4,21 +4,8 @@
 import { createRemoteJWKSet } from 'jose'
 import type { Kysely } from 'kysely'
 import type { Database, LtiPlatformRow } from '~~/db/schema'
+import type { PlatformView, ToolConfiguration } from '#shared/types/lti'
 import { AGS_SCOPE } from './claims'
-
-export interface PlatformView {
-  id: number
-  name: string
-  issuer: string
-  clientId: string
-  deploymentIds: string[]
-  authUrl: string
-  tokenUrl: string
-  jwksUrl: string
-  disabled: boolean
-  createdAt: string
-  updatedAt: string
-}
 
 export function deploymentsOf(row: Pick<LtiPlatformRow, 'deployment_ids'>): string[] {
   try {
@@ -66,7 +53,7 @@ export function platformKeySet(jwksUrl: string) {
 }
 
 /** What an administrator copies into the platform when registering Cyclodial. */
-export function toolConfiguration(siteOrigin: string) {
+export function toolConfiguration(siteOrigin: string): ToolConfiguration {
   return {
     title: 'Cyclodial',
     description: 'Practise measuring and recording cyclotorsion with the double Maddox rod test on seeded virtual patients.',

@@ -12,7 +12,7 @@ import type { Eye, Gaze, Lights, PerEye, Prism } from '#shared/engine/types'
 
 import { ruleSwapEvidence } from '#shared/engine/slips'
 import type { RuleSwapAttempt } from '#shared/engine/slips'
-import { slipSetOf } from '#shared/review/slipSet'
+import { slipSetOf } from '#shared/review/slip-set'
 import type { AttemptResult } from '#shared/types/practice'
 import type { AttemptKind, AttemptRow, CaseRow, Database } from '~~/db/schema'
 import type { AttemptGrade, AttemptInput } from '~~/server/lib/engine/attempt'

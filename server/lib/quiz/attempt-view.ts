@@ -11,7 +11,7 @@ import { caseTurns, regenerateCase } from '~~/server/lib/practice/cases'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import { attemptFeedback } from './feedback'
 import { readItemConfig } from './items'
-import { loadOverrides } from './results'
+import { markOverridesOf } from '~~/server/lib/data/mark-overrides'
 import { feedbackReleased } from './timing'
 import { quizItem } from '~~/server/lib/data/quiz-items'
 import { countingAttempt } from '~~/server/lib/data/attempts'
@@ -30,7 +30,7 @@ export async function quizAttemptView(db: Kysely<Database>, viewer: SessionUserD
   const open = staff || feedbackReleased(quiz)
   const turn = attempt.trial ? (await caseTurns(db, caseRow.id)).find(t => t.trial === attempt.trial)?.result ?? null : null
   const interpretation = attempt.interpretation_json ? (JSON.parse(attempt.interpretation_json) as { given?: unknown }).given ?? null : null
-  const overrides = staff ? (await loadOverrides(db, quiz.id)).filter(o => o.attempt_id === attempt.id) : []
+  const overrides = staff ? (await markOverridesOf(db, 'quiz_mark_overrides', quiz.id)).filter(o => o.attempt_id === attempt.id) : []
   return {
     quiz: { id: quiz.id, title: quiz.title },
     item: { id: item.id, position: item.position, prompt: item.prompt, mode: config.mode, readScale: config.readScale, ...(staff ? { title: config.source.title, tolerance: config.tolerance } : {}) },

@@ -6,10 +6,11 @@ import type { StudentItemFeedback } from '#shared/types/quiz'
 import type { AttemptRow, Database } from '~~/db/schema'
 import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
 import type { QuizItemConfig } from './items'
-import { effectiveMarks, feedbackMarks, loadOverrides } from './results'
+import { effectiveMarks, feedbackMarks } from './marks'
+import { markOverridesOf } from '~~/server/lib/data/mark-overrides'
 
 export async function attemptFeedback(db: Kysely<Database>, attempt: AttemptRow, config: QuizItemConfig, interpretationOn: boolean, audience: 'student' | 'staff' = 'student'): Promise<StudentItemFeedback> {
-  const overrides = (await loadOverrides(db, attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
+  const overrides = (await markOverridesOf(db, 'quiz_mark_overrides', attempt.quiz_id!)).filter(o => o.attempt_id === attempt.id)
   const marks = effectiveMarks(attempt, config, interpretationOn, overrides)
   return { ...attemptResultFromRow(attempt), ...feedbackMarks(marks, audience, JSON.parse(attempt.slips_json) as { code: string }[]) }
 }

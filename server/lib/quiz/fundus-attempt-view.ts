@@ -9,7 +9,7 @@ import type { Database, FundusAttemptRow, QuizRow } from '~~/db/schema'
 import type { FundusItemConfig } from './items'
 import { readItemConfig } from './items'
 import { fundusFeedbackOf, fundusItemPictures, referencePoints, studentItemImages } from './fundus-item'
-import { loadFundusOverrides } from './fundus-marks'
+import { markOverridesOf } from '~~/server/lib/data/mark-overrides'
 import { feedbackReleased } from './timing'
 import { quizItem } from '~~/server/lib/data/quiz-items'
 import { countingFundusAttempt } from '~~/server/lib/data/attempts'
@@ -25,7 +25,7 @@ export async function quizFundusAttemptView(db: Kysely<Database>, viewer: Sessio
   const staff = viewer.role !== 'student'
   const open = staff || feedbackReleased(quiz)
   const pictures = fundusItemPictures(config, caseRow ?? null, attempt.fundus_version ?? undefined)
-  const overrides = open ? (await loadFundusOverrides(db, quiz.id)).filter(o => o.attempt_id === attempt.id) : []
+  const overrides = open ? (await markOverridesOf(db, 'quiz_fundus_overrides', quiz.id)).filter(o => o.attempt_id === attempt.id) : []
   return {
     quiz: { id: quiz.id, title: quiz.title },
     item: { id: item.id, position: item.position, prompt: item.prompt, eyes: pictures.eyes, ...(staff ? { title: config.source.title, tolerance: config.tolerance } : {}) },

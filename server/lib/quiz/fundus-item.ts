@@ -20,9 +20,8 @@ import { toFundusPresentation } from '~~/server/lib/fundus/presentation'
 import type { Case } from '~~/server/lib/engine/types'
 import type { FundusItemConfig } from './items'
 import { fundusItemEyes } from './items'
-import type { OverrideRow } from './overrides'
-import { applyOverrides, feedbackMarks } from './results'
-import { fundusMarksOf } from './fundus-marks'
+import type { OverrideRow } from '~~/server/lib/data/mark-overrides'
+import { applyOverrides, feedbackMarks, fundusMarksOf } from './marks'
 
 export interface FundusItemPictures {
   eyes: Eye[]

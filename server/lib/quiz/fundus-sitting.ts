@@ -13,15 +13,14 @@ import type { Database, QuizItemRow, QuizRow, QuizSittingRow } from '~~/db/schem
 import { nowIso } from '~~/server/utils/clock'
 import { badRequest } from '~~/server/utils/validate'
 import { storeFundusAttempt } from '~~/server/lib/fundus/attempts'
+import { quizItemAttempts } from '~~/server/lib/data/attempts'
 import { learnerCohortId } from '~~/server/lib/fundus/case-fundus'
 import type { FundusItemConfig } from './items'
 import { fundusDraftOf, fundusItemPictures, gradeFundusItem, studentItemImages } from './fundus-item'
 import { ensureQuizCase, quizCaseRow } from './sitting'
 
-export async function fundusAttemptsOn(db: Kysely<Database>, quizId: number, itemId: number, studentId: number) {
-  return db.selectFrom('fundus_attempts').select(['id', 'submitted_at'])
-    .where('quiz_id', '=', quizId).where('quiz_item_id', '=', itemId).where('learner_id', '=', studentId).where('kind', '=', 'quiz')
-    .orderBy('id').execute()
+export function fundusAttemptsOn(db: Kysely<Database>, quizId: number, itemId: number, studentId: number) {
+  return quizItemAttempts(db, 'fundus_attempts', { quizId, itemId, learnerId: studentId })
 }
 
 export async function studentFundusItem(db: Kysely<Database>, user: SessionUserData, quiz: QuizRow, item: QuizItemRow, config: FundusItemConfig, sitting: QuizSittingRow): Promise<StudentFundusItem> {

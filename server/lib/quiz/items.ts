@@ -4,7 +4,7 @@
 // (a case on the bench) or 'fundus' (a case's fundus, or a tutor's photograph).
 import type { Kysely } from 'kysely'
 import { createError } from 'h3'
-import type { CaseSpec } from '#shared/engine/caseSpec'
+import type { CaseSpec } from '#shared/engine/case-spec'
 import type { Mode, Eye } from '#shared/engine/types'
 import type { CaseSource, NarrowedRanges } from '#shared/schemas/casebook'
 import type { DmrItemBody, FundusItemBody, QuizCriterion, QuizItemKind, Weights } from '#shared/schemas/quiz'

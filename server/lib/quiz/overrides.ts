@@ -1,14 +1,14 @@
 // A tutor's change to one mark of a quiz attempt, for either item kind: only the
 // attempt that counts (the student's last on the item) may change, and the change
-// and its audit entry are written in one transaction. Double Maddox rod attempts
+// and its audit entry are written in one transaction. Each kind names its override
+// table and audit target (server/lib/quiz/item-kinds.ts): double Maddox rod attempts
 // keep their overrides in quiz_mark_overrides, fundus attempts (their own table,
 // their own ids) in quiz_fundus_overrides.
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
 import { deliverDueGrades, queueQuizGrades } from '~~/server/lib/lti/grades'
-
-/** A tutor's override of one mark, with who made it (results, feedback and the audit read these). */
-export interface OverrideRow { attempt_id: number, criterion: string, previous_score: number, score: number, reason: string, created_at: string, actorName: string | null }
+import { insertMarkOverride } from '~~/server/lib/data/mark-overrides'
+import type { OverrideTable } from '~~/server/lib/data/mark-overrides'
 
 /** 409 unless the attempt is the student's last on its item. */
 export function assertCountingAttempt(attemptId: number, latestId: number): void {
@@ -17,7 +17,8 @@ export function assertCountingAttempt(attemptId: number, latestId: number): void
 }
 
 export interface MarkOverride {
-  kind: 'dmr' | 'fundus'
+  /** The item kind's override table and audit target. */
+  kind: { overrideTable: OverrideTable, auditTarget: 'attempt' | 'fundus-attempt' }
   attemptId: number
   quizId: number
   studentId: number
@@ -32,12 +33,11 @@ export interface MarkOverride {
 export async function storeMarkOverride(db: Kysely<Database>, o: MarkOverride): Promise<void> {
   const row = { quiz_id: o.quizId, criterion: o.criterion, previous_score: o.from, score: o.to, reason: o.reason, actor_id: o.actorId, created_at: nowIso() }
   await db.transaction().execute(async (trx) => {
-    if (o.kind === 'fundus') await trx.insertInto('quiz_fundus_overrides').values({ ...row, fundus_attempt_id: o.attemptId }).execute()
-    else await trx.insertInto('quiz_mark_overrides').values({ ...row, attempt_id: o.attemptId }).execute()
+    await insertMarkOverride(trx, o.kind.overrideTable, o.attemptId, row)
     await writeAudit(trx, {
       actorId: o.actorId,
       action: 'quiz.mark-overridden',
-      targetType: o.kind === 'fundus' ? 'fundus-attempt' : 'attempt',
+      targetType: o.kind.auditTarget,
       targetId: o.attemptId,
       detail: { quizId: o.quizId, studentId: o.studentId, itemId: o.itemId, criterion: o.criterion, from: o.from, to: o.to, reason: o.reason },
     })

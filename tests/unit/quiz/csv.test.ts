@@ -4,7 +4,7 @@ import { resultsCsv } from '~~/server/lib/quiz/csv'
 import { DEFAULT_QUIZ_WEIGHTS } from '~~/server/lib/quiz/items'
 import type { StudentResult } from '#shared/types/quiz'
 import type { ItemColumn } from '~~/server/lib/quiz/results'
-import { effectiveMarks, pointsOf } from '~~/server/lib/quiz/results'
+import { effectiveMarks, pointsOf } from '~~/server/lib/quiz/marks'
 
 const config = { kind: 'dmr' as const, source: { type: 'engine' as const, templateId: 'normal-standard', title: 'N' }, perStudent: true, mode: 'patient-turns' as const, readScale: false, tolerance: 2, weights: DEFAULT_QUIZ_WEIGHTS }
 

@@ -1,11 +1,10 @@
 // A fundus item's marks from the fundus grading: each criterion is the mean of
 // its per-eye marks, weighted by the item; photograph items read their snapshot.
 import { describe, expect, it } from 'vitest'
-import { fundusMarksOf } from '~~/server/lib/quiz/fundus-marks'
 import { fundusItemPictures, gradeFundusItem } from '~~/server/lib/quiz/fundus-item'
 import type { FundusItemConfig } from '~~/server/lib/quiz/items'
 import { resolveWeights } from '~~/server/lib/quiz/items'
-import { applyOverrides, pointsOf } from '~~/server/lib/quiz/results'
+import { applyOverrides, fundusMarksOf, pointsOf } from '~~/server/lib/quiz/marks'
 
 const photoConfig: FundusItemConfig = {
   kind: 'fundus',

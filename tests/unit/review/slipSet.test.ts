@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest'
 import { fc } from '@fast-check/vitest'
 import type { Slip } from '#shared/engine/slips'
 import { countsFromHistory, emptyCounts } from '#shared/review/patterns'
-import { addSlipSet, slipSetOf, slipsOfSet } from '#shared/review/slipSet'
+import { addSlipSet, slipSetOf, slipsOfSet } from '#shared/review/slip-set'
 
 const slipArb = fc.record({
   code: fc.constantFrom('direction-reversed', 'dial-value-as-amount', 'amount-off', 'test-unnamed', 'not-parallel', 'eye-missing', 'gaze-missing'),

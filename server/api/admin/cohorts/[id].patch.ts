@@ -3,8 +3,9 @@
 import { idParam } from '#shared/schemas/common'
 import { cohortBody } from '#shared/schemas/admin'
 import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
+import type { CohortName } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CohortName> => {
   const admin = await requireRole(event, 'admin')
   const { id } = paramsAs(event, idParam)
   const { name } = await readBodyAs(event, cohortBody)

@@ -1,5 +1,7 @@
 // GET /api/admin/cohorts (admin): the cohorts with member counts.
-export default defineEventHandler(async (event) => {
+import type { AdminCohortList } from '#shared/types/admin'
+
+export default defineEventHandler(async (event): Promise<AdminCohortList> => {
   await requireRole(event, 'admin')
   const db = await useDb()
   const rows = await db.selectFrom('cohorts')

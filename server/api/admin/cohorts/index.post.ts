@@ -2,8 +2,9 @@
 // another cohort has it).
 import { cohortBody } from '#shared/schemas/admin'
 import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
+import type { CohortName } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CohortName> => {
   const admin = await requireRole(event, 'admin')
   const { name } = await readBodyAs(event, cohortBody)
   const db = await useDb()

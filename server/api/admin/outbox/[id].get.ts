@@ -1,7 +1,8 @@
 // GET /api/admin/outbox/:id (admin): one caught message.
 import { idParam } from '#shared/schemas/common'
+import type { OutboxMessage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<OutboxMessage> => {
   await requireRole(event, 'admin')
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

@@ -3,8 +3,9 @@
 import { idParam } from '#shared/schemas/common'
 import { userPatchBody } from '#shared/schemas/admin'
 import { updateUser } from '~~/server/lib/roster/users'
+import type { AdminUserChanged } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AdminUserChanged> => {
   const admin = await requireRole(event, 'admin')
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, userPatchBody)

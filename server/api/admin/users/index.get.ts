@@ -1,8 +1,10 @@
 // GET /api/admin/users (admin): `?q&role&cohortId&sort&dir&page&pageSize` → `{ items,
 // total, page, pageSize }`
 import { userListQuery } from '#shared/schemas/admin'
+import { countRows, onePage } from '~~/server/lib/data/paging'
+import type { AdminUserPage } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<AdminUserPage> => {
   await requireRole(event, 'admin')
   const query = queryAs(event, userListQuery)
   const db = await useDb()
@@ -20,13 +22,11 @@ export default defineEventHandler(async (event) => {
     base = base.where('users.id', 'in', eb => eb.selectFrom('cohort_members').select('user_id').where('cohort_id', '=', query.cohortId!))
   }
 
-  const { total } = await base.select(eb => eb.fn.countAll<number>().as('total')).executeTakeFirstOrThrow()
-  const rows = await base
-    .select(['users.id', 'users.email', 'users.name', 'users.role', 'users.disabled', 'users.created_at', 'users.last_login_at'])
+  const total = await countRows(base)
+  const rows = await onePage(base
+    .select(['users.id', 'users.email', 'users.name', 'users.role', 'users.disabled', 'users.created_at as createdAt', 'users.last_login_at as lastLoginAt'])
     .orderBy(`users.${query.sort}`, query.dir)
-    .orderBy('users.id', 'asc')
-    .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize)
+    .orderBy('users.id', 'asc'), query)
     .execute()
 
   const ids = rows.map(r => r.id)
@@ -36,17 +36,8 @@ export default defineEventHandler(async (event) => {
     : []
 
   return {
-    items: rows.map(r => ({
-      id: r.id,
-      email: r.email,
-      name: r.name,
-      role: r.role,
-      disabled: r.disabled === 1,
-      createdAt: r.created_at,
-      lastLoginAt: r.last_login_at,
-      cohorts: memberships.filter(m => m.user_id === r.id).map(m => ({ id: m.id, name: m.name })),
-    })),
-    total: Number(total),
+    items: rows.map(r => ({ ...r, disabled: r.disabled === 1, cohorts: memberships.filter(m => m.user_id === r.id).map(m => ({ id: m.id, name: m.name })) })),
+    total,
     page: query.page,
     pageSize: query.pageSize,
   }

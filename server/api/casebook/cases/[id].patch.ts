@@ -5,8 +5,9 @@ import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCasePatch } from '#shared/schemas/casebook'
 import { casebookCaseFor, caseOut } from '~~/server/lib/casebook/casebook'
 import { caseFromSpec } from '~~/server/lib/engine/generator'
+import type { CasebookCaseView } from '#shared/types/casebook'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasebookCaseView> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, casebookCasePatch)

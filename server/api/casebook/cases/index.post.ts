@@ -5,8 +5,9 @@ import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookCaseBody } from '#shared/schemas/casebook'
 import { caseOut } from '~~/server/lib/casebook/casebook'
 import { caseFromSpec } from '~~/server/lib/engine/generator'
+import type { CasebookCaseView } from '#shared/types/casebook'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasebookCaseView> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const body = await readBodyAs(event, casebookCaseBody)
   // the schema already refused impossible entries; the engine builds it to be sure

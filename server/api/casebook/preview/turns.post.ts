@@ -8,6 +8,7 @@ import { turnRequestSchema } from '#shared/schemas/practice'
 import { seedSchema } from '#shared/engine/schemas'
 import { caseFromSnapshot, snapshotSource } from '~~/server/lib/quiz/items'
 import { patientSetsRods } from '~~/server/lib/engine/patient'
+import type { PatientTurnsResult } from '#shared/engine/presentation'
 
 const previewTurnBody = turnRequestSchema.extend({
   source: caseSourceSchema,
@@ -17,7 +18,7 @@ const previewTurnBody = turnRequestSchema.extend({
 
 // Patient-turns in a casebook preview: the same patient (source + seed) turns the
 // rods; nothing is stored, since a preview is not an attempt.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PatientTurnsResult> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const body = await readBodyAs(event, previewTurnBody)
   const db = await useDb()

@@ -5,8 +5,9 @@ import { CASEBOOK_ROLES } from '#shared/auth/roles'
 import { casebookTemplatePatch } from '#shared/schemas/casebook'
 import { casebookTemplateFor, templateOut } from '~~/server/lib/casebook/casebook'
 import { narrowingProblems } from '~~/server/lib/quiz/narrow'
+import type { CasebookTemplateView } from '#shared/types/casebook'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CasebookTemplateView> => {
   const user = await requireRole(event, ...CASEBOOK_ROLES)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, casebookTemplatePatch)

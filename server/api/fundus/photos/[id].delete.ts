@@ -3,8 +3,9 @@
 import { idParam } from '#shared/schemas/common'
 import { deleteFundusPhoto, fundusPhotoStorage } from '~~/server/lib/fundus/photo-store'
 import { fundusPhotoFor, managesFundusPhoto, photoItemsQuery } from '~~/server/lib/fundus/photo-access'
+import type { FundusPhotoDeleted } from '#shared/types/fundus'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<FundusPhotoDeleted> => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')
   const { id } = paramsAs(event, idParam)
   const photo = await fundusPhotoFor(user, id)

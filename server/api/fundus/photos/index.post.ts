@@ -6,6 +6,7 @@ import { FUNDUS_PHOTO_MAX_BYTES, cleanImage, sniffImageType } from '~~/server/li
 import { fundusPhotoStorage, storeFundusPhoto } from '~~/server/lib/fundus/photo-store'
 import { shareableCohortIds } from '~~/server/lib/fundus/photo-access'
 import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
+import type { FundusPhotoView } from '#shared/types/fundus'
 
 const MB = FUNDUS_PHOTO_MAX_BYTES / 1024 / 1024
 /** Room for the form's text fields and multipart boundaries around the file. */
@@ -15,7 +16,7 @@ function refuse(statusCode: number, code: string, message: string, path = 'file'
   throw createError({ statusCode, message, data: { code, fields: [{ path, message }] } })
 }
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<FundusPhotoView> => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')
 
   const declared = Number(getRequestHeader(event, 'content-length'))

@@ -3,8 +3,9 @@
 import { homeFor } from '#shared/auth/roles'
 import { acceptInvitationBody } from '#shared/schemas/auth'
 import { invitationGone } from '~~/server/lib/roster/invitations'
+import type { SignedInReply } from '#shared/types/admin'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<SignedInReply> => {
   const token = getRouterParam(event, 'token') ?? ''
   const body = await readBodyAs(event, acceptInvitationBody)
   const db = await useDb()

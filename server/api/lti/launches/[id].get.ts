@@ -3,8 +3,9 @@
 import { launchParam } from '#shared/schemas/lti'
 import { CLAIM } from '~~/server/lib/lti/claims'
 import { ownLaunch } from '~~/server/lib/lti/flow'
+import type { LaunchView } from '#shared/types/lti'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<LaunchView> => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)
   const db = await useDb()

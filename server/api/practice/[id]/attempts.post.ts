@@ -6,6 +6,7 @@ import type { PracticeAttemptResult } from '#shared/types/practice'
 import { withCaseErrors } from '~~/server/lib/practice/http'
 import { findOwnedCase, practiceCaseView } from '~~/server/lib/practice/cases'
 import { attemptResultOf, recordAttempt } from '~~/server/lib/practice/attempts'
+import { hasAttemptOnCase } from '~~/server/lib/data/attempts'
 
 export default defineEventHandler(async (event): Promise<PracticeAttemptResult> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
@@ -14,7 +15,7 @@ export default defineEventHandler(async (event): Promise<PracticeAttemptResult> 
   const db = await useDb()
   const row = await findOwnedCase(db, id, user.id)
   if (!row) notFound('That practice case')
-  const earlier = await db.selectFrom('attempts').select('id').where('case_id', '=', row.id).where('learner_id', '=', user.id).executeTakeFirst()
+  const earlier = await hasAttemptOnCase(db, row.id, user.id)
   const recorded = await withCaseErrors(() => recordAttempt(db, {
     caseRow: row,
     learnerId: user.id,

@@ -1,8 +1,9 @@
 // Autosave the bench (dials, prisms, lights, record pad) so a reload resumes it.
 import { PRACTICE_ROLES } from '#shared/auth/roles'
 import { benchDraftSchema, caseIdParams } from '#shared/schemas/practice'
+import type { DraftSaved } from '#shared/types/common'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<DraftSaved> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
   const { id } = paramsAs(event, caseIdParams)
   const draft = await readBodyAs(event, benchDraftSchema)

@@ -5,14 +5,13 @@ import type { AttemptReplay } from '#shared/types/practice'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import { caseTitle, regenerateCase } from '~~/server/lib/practice/cases'
 import { attemptResultFromRow } from '~~/server/lib/practice/attempts'
+import { ownPracticeAttempt } from '~~/server/lib/data/attempts'
 
 export default defineEventHandler(async (event): Promise<AttemptReplay> => {
   const user = await requireRole(event, ...PRACTICE_ROLES)
   const { attemptId } = paramsAs(event, attemptIdParams)
   const db = await useDb()
-  const a = await db.selectFrom('attempts').selectAll()
-    .where('id', '=', attemptId).where('learner_id', '=', user.id).where('kind', '=', 'practice')
-    .executeTakeFirst()
+  const a = await ownPracticeAttempt(db, attemptId, user.id)
   if (!a) notFound('That attempt')
   const row = await db.selectFrom('cases').selectAll().where('id', '=', a.case_id).executeTakeFirstOrThrow()
   const patient = regenerateCase(row)

@@ -5,10 +5,11 @@ import { assignableCohortIds, quizCohortIds, quizForStaff } from '~~/server/lib/
 import { staffQuizDetail } from '~~/server/lib/quiz/detail'
 import { newQuizSeed } from '~~/server/lib/quiz/seeds'
 import { quizItems } from '~~/server/lib/data/quiz-items'
+import type { StaffQuizDetail } from '#shared/types/quiz'
 
 // A copy keeps the settings, items and (the caller's own) cohorts, unpublished,
 // with a fresh seed: new patients, so answers from the first sitting do not carry over.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffQuizDetail> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

@@ -7,10 +7,11 @@ import { QUIZ_STAFF } from '#shared/auth/roles'
 import { assertManagesQuiz, quizForStaff, quizStudents } from '~~/server/lib/quiz/access'
 import { quizPhase } from '~~/server/lib/quiz/timing'
 import { deliverDueGrades, queueQuizGrades } from '~~/server/lib/lti/grades'
+import type { QuizReleased } from '#shared/types/quiz'
 
 // Release results: unlocks every student's feedback and e-mails each of them. Only
 // after the quiz has closed, so nobody still sitting it can see an answer.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<QuizReleased> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

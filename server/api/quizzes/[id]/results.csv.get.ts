@@ -7,7 +7,7 @@ import { quizForStaff, quizReach } from '~~/server/lib/quiz/access'
 import { resultsCsv } from '~~/server/lib/quiz/csv'
 import { computeResults } from '~~/server/lib/quiz/results'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<string> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id } = paramsAs(event, idParam)
   const db = await useDb()

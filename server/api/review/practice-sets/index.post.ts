@@ -6,9 +6,10 @@ import { REVIEW_ROLES } from '#shared/auth/roles'
 import { practiceSetBody } from '#shared/schemas/review'
 import { createPracticeSet } from '~~/server/lib/review/practice-sets'
 import { reviewScopeFor } from '~~/server/lib/review/scope'
+import type { PracticeSetMade } from '#shared/types/review'
 
 /** Send a targeted practice set to some learners or a whole cohort; each learner gets an e-mail. */
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PracticeSetMade> => {
   const user = await requireRole(event, ...REVIEW_ROLES)
   const body = await readBodyAs(event, practiceSetBody)
   const db = await useDb()

@@ -2,8 +2,9 @@
 import { idParam } from '#shared/schemas/common'
 import { platformPatchBody } from '#shared/schemas/lti'
 import { platformView } from '~~/server/lib/lti/platforms'
+import type { PlatformView } from '#shared/types/lti'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PlatformView> => {
   const admin = await requireRole(event, 'admin')
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, platformPatchBody)

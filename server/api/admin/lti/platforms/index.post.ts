@@ -1,8 +1,9 @@
 // Registers a learning platform (LTI 1.3): issuer, client id, deployments and its URLs.
 import { platformBody } from '#shared/schemas/lti'
 import { platformView } from '~~/server/lib/lti/platforms'
+import type { PlatformView } from '#shared/types/lti'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PlatformView> => {
   const admin = await requireRole(event, 'admin')
   const body = await readBodyAs(event, platformBody)
   const db = await useDb()

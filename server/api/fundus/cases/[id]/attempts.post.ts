@@ -7,8 +7,9 @@ import { fundusForCase } from '~~/server/lib/fundus/generate'
 import { gradeFundus } from '~~/server/lib/fundus/grade'
 import { dmrRecordedOn, learnerCohortId, ownCaseForFundus } from '~~/server/lib/fundus/case-fundus'
 import { assertMarksOnPicture, storeFundusAttempt } from '~~/server/lib/fundus/attempts'
+import type { CaseFundusAttemptReply } from '#shared/types/fundus'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CaseFundusAttemptReply> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, caseFundusAttemptBody)

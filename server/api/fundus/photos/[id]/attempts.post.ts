@@ -5,8 +5,9 @@ import { ddUnitFromMarks, gradeFundus } from '~~/server/lib/fundus/grade'
 import { fundusPhotoFor } from '~~/server/lib/fundus/photo-access'
 import { assertMarksOnPicture, storeFundusAttempt } from '~~/server/lib/fundus/attempts'
 import { learnerCohortId } from '~~/server/lib/fundus/case-fundus'
+import type { PhotoFundusAttemptReply } from '#shared/types/fundus'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<PhotoFundusAttemptReply> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, photoFundusAttemptBody)

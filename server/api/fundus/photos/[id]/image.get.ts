@@ -7,7 +7,7 @@ import { isStorageName } from '~~/server/lib/fundus/photo-file'
 import { fundusPhotoStorage } from '~~/server/lib/fundus/photo-store'
 import { fundusPhotoImageFor } from '~~/server/lib/fundus/photo-access'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<Buffer> => {
   const user = await requireSignedIn(event)
   const { id } = paramsAs(event, idParam)
   const photo = await fundusPhotoImageFor(user, id)

@@ -6,8 +6,9 @@ import { photoReferenceBody } from '#shared/schemas/fundus'
 import { fundusPhotoFor, managesFundusPhoto } from '~~/server/lib/fundus/photo-access'
 import { assertMarksOnPicture } from '~~/server/lib/fundus/attempts'
 import { fundusPhotoViews } from '~~/server/lib/fundus/photo-view'
+import type { FundusPhotoView } from '#shared/types/fundus'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<FundusPhotoView> => {
   const user = await requireRole(event, 'tutor', 'lecturer', 'admin')
   const { id } = paramsAs(event, idParam)
   const body = await readBodyAs(event, photoReferenceBody)

@@ -4,8 +4,9 @@ import { courseLinkBody, launchParam } from '#shared/schemas/lti'
 import { CLAIM } from '~~/server/lib/lti/claims'
 import { nextPath, ownLaunch } from '~~/server/lib/lti/flow'
 import { assertCohortNameFree } from '~~/server/lib/roster/cohorts'
+import type { CourseLinked } from '#shared/types/lti'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<CourseLinked> => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)
   const body = await readBodyAs(event, courseLinkBody)

@@ -9,7 +9,7 @@ import { LtiRefusal, autoPostPage, refusalPage } from '~~/server/lib/lti/html'
 import { assertManagesQuiz, quizForStaff } from '~~/server/lib/quiz/access'
 import { computeResults } from '~~/server/lib/quiz/results'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<string | void> => {
   const user = await requireRole(event, 'tutor', 'lecturer')
   const { id } = paramsAs(event, launchParam)
   const db = await useDb()

@@ -15,6 +15,7 @@ import { studentFundusItem } from '~~/server/lib/quiz/fundus-sitting'
 import { caseTurns, regenerateCase } from '~~/server/lib/practice/cases'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import { quizItemOf } from '~~/server/lib/data/quiz-items'
+import { quizItemAttempts } from '~~/server/lib/data/attempts'
 
 // One item for the bench: the presentation (never the truth), the autosaved draft and
 // the patient's turns so far, so a reload or a restarted server picks up where it was.
@@ -33,9 +34,7 @@ export default defineEventHandler(async (event): Promise<StudentQuizItemPage> =>
   if (config.kind === 'fundus') return studentFundusItem(db, user, quiz, item, config, sitting)
   const row = (await ensureQuizCase(db, quiz, item, user.id, nowIso()))!
   const [attempts, turns] = await Promise.all([
-    db.selectFrom('attempts').select(['id', 'submitted_at'])
-      .where('quiz_id', '=', id).where('quiz_item_id', '=', itemId).where('learner_id', '=', user.id).where('kind', '=', 'quiz')
-      .orderBy('id').execute(),
+    quizItemAttempts(db, 'attempts', { quizId: id, itemId, learnerId: user.id }),
     caseTurns(db, row.id),
   ])
   return {

@@ -21,6 +21,7 @@ import { regenerateCase } from '~~/server/lib/practice/cases'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import type { CaseRow } from '~~/db/schema'
 import { quizItemOf } from '~~/server/lib/data/quiz-items'
+import { quizItemAttemptCount } from '~~/server/lib/data/attempts'
 
 /** Whether the student was shown cover-test findings to interpret (the bench offers the step only then). */
 const hasCoverTest = (row: CaseRow) => !!toPresentation(regenerateCase(row), row.mode).coverTest
@@ -49,10 +50,8 @@ export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => 
     const sitting = assertSittingOpen(quiz, await sittingOf(db, id, user.id))
     const row = await quizCaseRow(db, id, itemId, user.id)
     if (!row) notFound('That quiz item')
-    const used = await db.selectFrom('attempts').select(eb => eb.fn.countAll<number>().as('n'))
-      .where('quiz_id', '=', id).where('quiz_item_id', '=', itemId).where('learner_id', '=', user.id).where('kind', '=', 'quiz')
-      .executeTakeFirstOrThrow()
-    if (Number(used.n) >= quiz.attempts_allowed) {
+    const used = await quizItemAttemptCount(db, 'attempts', { quizId: id, itemId, learnerId: user.id })
+    if (used >= quiz.attempts_allowed) {
       throw createError({
         statusCode: 409,
         statusMessage: 'Conflict',
@@ -76,7 +75,7 @@ export default defineEventHandler(async (event): Promise<QuizAttemptReceipt> => 
       startedAt: sitting.started_at,
     }))
     setResponseStatus(event, 201)
-    const left = Math.max(0, quiz.attempts_allowed - Number(used.n) - 1)
+    const left = Math.max(0, quiz.attempts_allowed - used - 1)
     return {
       attemptId: recorded.attemptId,
       submittedAt: recorded.submittedAt,

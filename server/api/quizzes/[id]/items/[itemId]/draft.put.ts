@@ -10,12 +10,13 @@ import { quizForStudent } from '~~/server/lib/quiz/access'
 import { quizCaseRow, sittingOf } from '~~/server/lib/quiz/sitting'
 import { assertSittingOpen } from '~~/server/lib/quiz/timing'
 import { quizItemOf } from '~~/server/lib/data/quiz-items'
+import type { DraftSaved } from '#shared/types/common'
 
 // Autosave, stored on the case row as the practice API stores it. Refused (409)
 // once the sitting has ended: what was saved before the deadline stays as it was.
 // A fundus item's body is its marks so far ({ eyes: { RE?, LE? } }), kept per
 // item and student in quiz_fundus_drafts; the item decides which body is read.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<DraftSaved> => {
   const user = await requireRole(event, 'student')
   const { id, itemId } = paramsAs(event, quizItemParams)
   const db = await useDb()

@@ -12,10 +12,11 @@ import { fundusDraftOf, fundusItemPictures, fundusPicturesOfCase, referencePoint
 import { revealTruth } from '~~/server/lib/engine/attempt'
 import { toPresentation } from '~~/server/lib/engine/presentation'
 import { quizItemOf } from '~~/server/lib/data/quiz-items'
+import type { StaffCasePreview } from '#shared/types/quiz'
 
 // Exactly what one student sees (or saw) on an item: the stored case if they have
 // opened it, else the case the quiz seed derives for them — the same patient.
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<StaffCasePreview> => {
   const user = await requireRole(event, ...QUIZ_STAFF)
   const { id, itemId, studentId } = paramsAs(event, quizStudentCaseParams)
   const db = await useDb()

@@ -10,7 +10,7 @@ import { fundusItemPictures } from '~~/server/lib/quiz/fundus-item'
 import { renderFundusPng } from '~~/server/lib/fundus/render'
 import { quizItemOf } from '~~/server/lib/data/quiz-items'
 
-export default defineEventHandler(async (event) => {
+export default defineEventHandler(async (event): Promise<Buffer> => {
   const user = await requireRole(event, 'student')
   const { id, itemId, eye } = paramsAs(event, quizItemPictureParams)
   const db = await useDb()

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { itemSummary } from '#shared/quiz/itemSummary'
+import { itemSummary } from '#shared/quiz/item-summary'
 import type { StaffQuizItem } from '#shared/types/quiz'
 
 type Summarised = Parameters<typeof itemSummary>[0]
