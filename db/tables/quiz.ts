@@ -59,10 +59,9 @@ export interface QuizSittingsTable {
   finished_at: Timestamp | null
 }
 
-/** A tutor's change to one criterion's mark on an attempt, with the reason. */
-export interface QuizMarkOverridesTable {
+/** A tutor's change to one criterion's mark, with the reason: the columns both kinds of attempt share. */
+interface MarkOverrideColumns {
   id: Generated<number>
-  attempt_id: number
   quiz_id: number
   criterion: string
   previous_score: number
@@ -70,6 +69,11 @@ export interface QuizMarkOverridesTable {
   reason: string
   actor_id: number | null
   created_at: Timestamp
+}
+
+/** A tutor's change to one criterion's mark on an attempt, with the reason. */
+export interface QuizMarkOverridesTable extends MarkOverrideColumns {
+  attempt_id: number
 }
 
 /** 0009: a student's autosaved marks on a fundus quiz item. */
@@ -82,14 +86,6 @@ export interface QuizFundusDraftsTable {
 }
 
 /** 0009: a tutor's change to one criterion of a fundus quiz attempt, with the reason. */
-export interface QuizFundusOverridesTable {
-  id: Generated<number>
+export interface QuizFundusOverridesTable extends MarkOverrideColumns {
   fundus_attempt_id: number
-  quiz_id: number
-  criterion: string
-  previous_score: number
-  score: number
-  reason: string
-  actor_id: number | null
-  created_at: Timestamp
 }
