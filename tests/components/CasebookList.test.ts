@@ -6,16 +6,18 @@ import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { h } from 'vue'
 import CasebookList from '~/components/casebook/CasebookList.vue'
 
-type Row = { id: number, archived: boolean, title: string }
+// the component's own constraint; these entries also carry a title for their cells
+type Entry = { id: number, archived: boolean }
+type Row = Entry & { title: string }
 const base = {
   headingId: 'cases-heading',
   title: 'Your exact cases',
   newLabel: 'New exact case',
   empty: 'None yet.',
   columns: ['Title', 'Tolerance'],
-  preview: (r: Row) => ({ path: '/casebook/preview', query: { type: 'case', id: r.id } }),
+  preview: (r: Entry) => ({ path: '/casebook/preview', query: { type: 'case', id: r.id } }),
 }
-const cells = ({ row }: { row: Row }) => [h('td', row.title), h('td', '2°')]
+const cells = ({ row }: { row: Entry }) => [h('td', (row as Row).title), h('td', '2°')]
 
 describe('CasebookList', () => {
   it('says so when empty, and shows the form only when open', async () => {
