@@ -12,7 +12,7 @@ describe('UiLoadState', () => {
   it('shows the server\'s message as an alert, and neither the loading line nor the content', async () => {
     const wrapper = await mountSuspended(UiLoadState, { props: { error: refusal, pending: true }, slots })
     const alert = wrapper.find('[role="alert"]')
-    expect(alert.text()).toBe('No such quiz.')
+    expect(alert.element.textContent).toBe('No such quiz.')
     expect(wrapper.find('button').exists()).toBe(false)
     expect(wrapper.text()).not.toContain('Loading')
     expect(wrapper.find('#content').exists()).toBe(false)
@@ -23,7 +23,7 @@ describe('UiLoadState', () => {
     const wrapper = await mountSuspended(UiLoadState, { props: { error: refusal, retry: () => tries++ }, slots })
     const button = wrapper.get('[role="alert"] button')
     expect(button.text()).toBe('Try again')
-    expect(wrapper.get('[role="alert"]').text()).toBe('No such quiz. Try again')
+    expect(wrapper.get('[role="alert"]').element.textContent).toBe('No such quiz. Try again')
     await button.trigger('click')
     expect(tries).toBe(1)
   })
