@@ -1,5 +1,6 @@
 // useSubmit: pending while the call runs, the server's refusal as a problem, nothing kept from an earlier try.
-import { describe, expect, it } from 'vitest'
+import { afterEach, describe, expect, it } from 'vitest'
+import { ref } from 'vue'
 import { useSubmit } from '~/composables/useSubmit'
 
 /** A promise the test settles by hand, to look at the state in between. */
@@ -64,5 +65,58 @@ describe('useSubmit', () => {
     }, { fallback: 'The quiz was not saved.' })
     await run()
     expect(problem.value).toEqual({ message: 'The quiz was not saved.', fields: {}, status: 500 })
+  })
+
+  describe('after a refusal', () => {
+    afterEach(() => {
+      document.body.innerHTML = ''
+    })
+
+    it('runs onProblem with the problem, the error and run\'s arguments, then moves focus into the form, all while still pending', async () => {
+      const form = document.createElement('form')
+      form.innerHTML = '<input id="other"><input id="title"><p class="field-error">Title is required.</p>'
+      document.body.append(form)
+      const formEl = ref<HTMLFormElement | null>(form)
+      const seen: string[] = []
+      const { pending, problem, run } = useSubmit(async (_step: string) => {
+        throw refusal
+      }, {
+        form: formEl,
+        onProblem: (p, error, step) => {
+          seen.push(`${step} pending=${pending.value} focus=${document.activeElement?.id || 'body'}`)
+          expect(p).toEqual(problem.value)
+          expect(error).toBe(refusal)
+        },
+      })
+      await expect(run('check')).resolves.toBeUndefined()
+      expect(seen).toEqual(['check pending=true focus=body'])
+      const title = form.querySelector<HTMLInputElement>('#title')!
+      expect(document.activeElement).toBe(title)
+      expect(title.getAttribute('aria-invalid')).toBe('true')
+      expect(title.getAttribute('aria-describedby')).toBe(form.querySelector('.field-error')!.id)
+      expect(pending.value).toBe(false)
+    })
+
+    it('focuses the form\'s alert when the refusal names no field', async () => {
+      const form = document.createElement('form')
+      form.innerHTML = '<input id="email"><div role="alert">Sign-in failed.</div>'
+      document.body.append(form)
+      const { run } = useSubmit(async () => {
+        throw { statusCode: 401, data: { message: 'Sign-in failed.' } }
+      }, { form: () => form })
+      await run()
+      expect(document.activeElement).toBe(form.querySelector('[role="alert"]'))
+    })
+
+    it('moves no focus and calls nothing when the call succeeds', async () => {
+      const form = document.createElement('form')
+      form.innerHTML = '<input id="a"><p class="field-error">stale</p>'
+      document.body.append(form)
+      let called = 0
+      const { run } = useSubmit(async () => 'ok', { form: () => form, onProblem: () => called++ })
+      await expect(run()).resolves.toBe('ok')
+      expect(called).toBe(0)
+      expect(document.activeElement).toBe(document.body)
+    })
   })
 })
