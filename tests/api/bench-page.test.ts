@@ -1,5 +1,5 @@
-// The bench page as the server renders it: its payload (the data and store state
-// handed to the browser before any attempt) must not give the answer away — no
+// The bench page as the server renders it: its payload (the data handed to the
+// browser before any attempt) must not give the answer away — no
 // condition, signed torsion, direction label or model record — whichever mode, and
 // whether the learner chose the template or Cyclodial did.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
@@ -46,9 +46,10 @@ async function checkCase(created: any, options: ScanOptions & { hidden: boolean 
     gaze: 'down', distance: 'near', readings: { RE: 93, LE: 88 }, prisms: [{ eye: 'RE', power: 6, base: 'down' }], lights: 'dim', record: 'DMR near',
   })).status).toBe(200)
   const payload = await benchPayload(created.id)
-  // not a vacuous scan: the payload holds the case's presentation and the bench's store
+  // not a vacuous scan: the payload holds the case's presentation and the saved bench (the
+  // bench's own state is made afresh in the browser from these, never handed down)
   expect(JSON.stringify(payload)).toContain(created.presentation.wordsKey)
-  expect(payload.pinia?.['bench:practice']?.gaze).toBe('down')
+  expect(payload.data?.[`practice-case-${created.id}`]?.draft?.gaze).toBe('down')
   expectNoCaseSecrets(payload, secrets, `the bench page's payload (${created.mode})`, {
     ...options,
     allowNumbersAt: [...BENCH_NUMBERS, ...(options.allowNumbersAt ?? [])],
