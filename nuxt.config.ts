@@ -27,7 +27,7 @@ function devSessionPassword(_options: unknown, nuxt: Nuxt) {
 }
 
 export default defineNuxtConfig({
-  modules: [devSessionPassword, '@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  modules: [devSessionPassword, '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
   devtools: { enabled: false },
   app: {
     head: {

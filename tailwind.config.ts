@@ -12,7 +12,6 @@ export default {
     './components/**/*.vue',
     './layouts/**/*.vue',
     './composables/**/*.ts',
-    './stores/**/*.ts',
   ],
   theme: {
     extend: {

@@ -1,9 +1,10 @@
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { nextTick } from 'vue'
+import type { VueWrapper } from '@vue/test-utils'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import SimBench from '~/components/sim/SimBench.vue'
 import SimPatientView from '~/components/sim/SimPatientView.vue'
-import { useBenchStore } from '~/stores/bench'
+import type { Bench } from '~/composables/useBench'
 import { gradeAttempt } from '~~/server/lib/engine/attempt'
 import { patientSetsRods } from '~~/server/lib/engine/patient'
 import { SLIP_INFO } from '#shared/engine/slips'
@@ -16,8 +17,8 @@ afterEach(() => {
   vi.useRealTimers()
 })
 
-let n = 0
-const benchId = () => `bench-test-${++n}`
+/** The state the mounted <SimBench> made for itself with createBench(). */
+const benchOf = (wrapper: VueWrapper) => (wrapper.vm as unknown as { bench: Bench }).bench
 
 describe('SimBench in learner-turns', () => {
   const { case: c, presentation } = engineCase('so-palsy-right', 'bench-test-case-7')
@@ -25,9 +26,8 @@ describe('SimBench in learner-turns', () => {
 
   it('answers live: the patient reports parallel once both rods sit where their lines look level', async () => {
     fakeLayout(640)
-    const id = benchId()
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id } })
-    const store = useBenchStore(id)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
+    const store = benchOf(wrapper)
     const words = () => wrapper.get('[data-testid="patient-words"]').text()
     expect(words()).not.toMatch(/parallel now/)
     store.setRod('RE', level.RE)
@@ -43,9 +43,8 @@ describe('SimBench in learner-turns', () => {
   it('puts the view into words for screen readers and announces it only once a dial has settled', async () => {
     fakeLayout(640)
     vi.useFakeTimers()
-    const id = benchId()
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id } })
-    const store = useBenchStore(id)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
+    const store = benchOf(wrapper)
     const live = () => wrapper.get('[data-testid="patient-view-words"]')
     expect(live().attributes('aria-live')).toBe('polite')
     // the canvas is described by the same words
@@ -74,9 +73,8 @@ describe('SimBench in learner-turns', () => {
   it('autosaves the draft after a pause, and submits the dial settings with the record', async () => {
     fakeLayout(640)
     vi.useFakeTimers()
-    const id = benchId()
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, autosaveMs: 500 } })
-    const store = useBenchStore(id)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', autosaveMs: 500 } })
+    const store = benchOf(wrapper)
     store.setRod('RE', 97)
     store.setGaze('down')
     await nextTick()
@@ -99,10 +97,9 @@ describe('SimBench in learner-turns', () => {
 
   it('sends a change still waiting when the bench goes away, with its own case key', async () => {
     fakeLayout(640)
-    const id = benchId()
     const onChange = vi.fn()
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, autosaveMs: 60_000, caseKey: 41, onChange } })
-    useBenchStore(id).setRod('LE', 85)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', autosaveMs: 60_000, caseKey: 41, onChange } })
+    benchOf(wrapper).setRod('LE', 85)
     await nextTick()
     expect(onChange).not.toHaveBeenCalled()
     wrapper.unmount()
@@ -114,18 +111,17 @@ describe('SimBench in learner-turns', () => {
 
   it('shows the marks and slips the engine gives, and locks the bench', async () => {
     fakeLayout(640)
-    const id = benchId()
     const body = { gaze: 'primary' as const, distance: 'near' as const, readings: { RE: level.RE, LE: level.LE }, prisms: [], lights: 'dim' as const, record: 'right eye 100' }
     const graded = gradeAttempt(c, body, { mode: 'learner-turns' })
     const result: BenchResult = { attemptId: 1, ...graded, truth: { ...graded.truth } }
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: id, initialDraft: body, result } })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', initialDraft: body, result } })
     const text = wrapper.get('[data-testid="feedback"]').text()
     expect(text).toContain(`${Math.round(graded.score * 100)}%`)
     expect(graded.slips.length).toBeGreaterThan(0)
     for (const s of graded.slips) expect(text).toContain(SLIP_INFO[s.code].title)
     expect(wrapper.get('[data-testid="model-record"]').text()).toBe(graded.modelRecord)
     expect(wrapper.find('[data-testid="eye-image-sketch"]').exists()).toBe(true)
-    const store = useBenchStore(id)
+    const store = benchOf(wrapper)
     expect(store.locked).toBe(true)
     store.setRod('RE', 120)
     expect(store.rods.RE).toBe(Math.round(level.RE * 10) / 10)
@@ -136,7 +132,7 @@ describe('SimBench in learner-turns', () => {
     const body = { gaze: 'primary' as const, distance: 'near' as const, readings: { RE: 90, LE: 90 }, prisms: [], lights: 'dim' as const, record: 'DMR' }
     const graded = gradeAttempt(c, body, { mode: 'learner-turns' })
     const wrapper = await mountSuspended(SimBench, {
-      props: { presentation, mode: 'learner-turns', benchId: benchId(), result: { attemptId: 2, ...graded }, showFeedback: false },
+      props: { presentation, mode: 'learner-turns', result: { attemptId: 2, ...graded }, showFeedback: false },
     })
     expect(wrapper.find('[data-testid="feedback"]').exists()).toBe(false)
     expect(wrapper.text()).toContain('Your record has been taken')
@@ -146,7 +142,7 @@ describe('SimBench in learner-turns', () => {
   it('offers the interpretation step when the case has cover-test findings', async () => {
     fakeLayout(640)
     expect(presentation.coverTest).toBeDefined()
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
     expect(wrapper.text()).toContain('Interpretation: which muscle?')
     await wrapper.get('#interp-muscle').setValue('RSO')
     await wrapper.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
@@ -157,7 +153,7 @@ describe('SimBench in learner-turns', () => {
 
   it('where the interpretation counts, submitting it incomplete asks once; practice sends at once', async () => {
     fakeLayout(640)
-    const quiz = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    const quiz = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', interpretationCounts: true } })
     await quiz.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
     const dialog = () => quiz.findAll('dialog').find(d => d.text().includes('The interpretation counts in this quiz; submit without it?'))!
     expect(dialog().attributes('open')).toBeUndefined()
@@ -168,7 +164,7 @@ describe('SimBench in learner-turns', () => {
     await quiz.findAll('button').find(b => b.text() === 'Submit without it')!.trigger('click')
     expect(quiz.emitted('submit')).toHaveLength(1)
     // answered in full: no question
-    const full = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId(), interpretationCounts: true } })
+    const full = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', interpretationCounts: true } })
     await full.get('#record-text').setValue('DMR near primary RE 5 ex LE nil')
     await full.get('#interp-muscle').setValue('not-applicable')
     await full.findAll('button').find(b => b.text() === 'Submit record')!.trigger('click')
@@ -177,7 +173,7 @@ describe('SimBench in learner-turns', () => {
 
   it('says which marking its dial uses, and leaves the simulation caution to the page (said once, in the footer)', async () => {
     fakeLayout(640)
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
     expect(wrapper.text()).toContain('Cyclodial\'s dial marks the rod (cylinder) axis: 90° means no torsion')
     expect(wrapper.find('[role="note"][aria-label="Educational simulation"]').exists()).toBe(false)
   })
@@ -185,7 +181,7 @@ describe('SimBench in learner-turns', () => {
   it('shows How to read the dials beside the frame until it is closed, and keeps it closed', async () => {
     fakeLayout(640)
     localStorage.removeItem('cyclodial:dial-help-closed')
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
     const help = wrapper.get('[data-testid="dial-help"]')
     // the reading rule (clinical-facts.md: RE torsion = reading − 90, LE torsion = 90 − reading, + = excyclo)
     expect(help.text()).toContain('Right eye: torsion = reading − 90.')
@@ -195,7 +191,7 @@ describe('SimBench in learner-turns', () => {
     expect(wrapper.find('[data-testid="dial-help"]').exists()).toBe(false)
     expect(localStorage.getItem('cyclodial:dial-help-closed')).toBe('true')
     wrapper.unmount()
-    const again = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: benchId() } })
+    const again = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns' } })
     await nextTick()
     expect(again.find('[data-testid="dial-help"]').exists()).toBe(false)
     await again.get('[data-testid="dial-help-open"]').trigger('click')
@@ -210,11 +206,10 @@ describe('SimBench in patient-turns', () => {
   it('holds no dial cues, asks the patient, shows where they left the rods and sends the trial with the readings', async () => {
     expect(presentation.positions.primary.horizontalAt).toBeUndefined()
     fakeLayout(640)
-    const id = benchId()
     let trial = 0
     const askPatient = vi.fn(async (req: TurnRequest) => patientSetsRods(c, { ...req, trial: ++trial }))
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', benchId: id, askPatient } })
-    const store = useBenchStore(id)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', askPatient } })
+    const store = benchOf(wrapper)
     expect(wrapper.findAll('[role="slider"]')).toHaveLength(0)
     expect(store.submitBlocker).toBe('Ask the patient to set the rods first.')
 
@@ -237,10 +232,9 @@ describe('SimBench in patient-turns', () => {
 
   it('puts the rods back to 90° when the setting changes after a trial', async () => {
     fakeLayout(640)
-    const id = benchId()
     const askPatient = async (req: TurnRequest) => patientSetsRods(c, { ...req, trial: 1 })
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', benchId: id, askPatient } })
-    const store = useBenchStore(id)
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'patient-turns', askPatient } })
+    const store = benchOf(wrapper)
     await wrapper.findAll('button').find(b => b.text() === 'Ask the patient to set the rods')!.trigger('click')
     await vi.waitFor(() => expect(store.activeTurn).not.toBeNull())
     store.addPrism({ eye: 'RE', power: 6, base: 'down' })

@@ -1,15 +1,13 @@
-// Mounts one bench component with its store provided, the way <SimBench> does,
+// Mounts one bench component with its bench state provided, the way <SimBench> does,
 // and gives the canvas a size and a recording 2D context (Happy DOM has neither).
 import { defineComponent, h, provide } from 'vue'
 import type { Component } from 'vue'
 import { vi } from 'vitest'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
-import { BENCH_KEY, useBenchStore } from '~/stores/bench'
-import type { BenchInit } from '~/stores/bench'
+import { BENCH_KEY, createBench } from '~/composables/useBench'
+import type { BenchInit } from '~/composables/useBench'
 import { recordingContext } from './canvas'
 import type { RecordingContext } from './canvas'
-
-let counter = 0
 
 /** Give every element a 640 px wide box and every canvas a recording context. */
 export function fakeLayout(width = 640): RecordingContext {
@@ -22,7 +20,7 @@ export function fakeLayout(width = 640): RecordingContext {
 }
 
 export async function mountInBench(component: Component, init: BenchInit, props: Record<string, unknown> = {}) {
-  const store = useBenchStore(`test-${++counter}`)
+  const store = createBench()
   store.load(init)
   const Host = defineComponent({
     setup() {

@@ -2,10 +2,11 @@
 // record and, in patient-turns mode, where the patient left the rods. Components
 // read and change it; the page (or the quiz) owns the network.
 //
-// One store per mounted bench (`useBenchStore(id)`), so a quiz can show several
-// items without their dials sharing state.
+// Each mounted <SimBench> makes its own with `createBench()` and provides it under
+// BENCH_KEY; its parts take it with `useBench()`. A quiz can show several items
+// without their dials sharing state.
 
-import { defineStore } from 'pinia'
+import type { InjectionKey } from 'vue'
 import type { InterpretationBody } from '#shared/engine/schemas'
 import type { PatientTurnsResult, Presentation } from '#shared/engine/presentation'
 import { parseRecord, readAsLine } from '#shared/engine/parser'
@@ -250,26 +251,18 @@ function benchSetup() {
   }
 }
 
-const factories = new Map<string, ReturnType<typeof makeStore>>()
-const makeStore = (id: string) => defineStore(`bench:${id}`, benchSetup)
-
-/** The store of the bench with this id ("practice" for the practice page). */
-export function useBenchStore(id = 'practice') {
-  let factory = factories.get(id)
-  if (!factory) {
-    factory = makeStore(id)
-    factories.set(id, factory)
-  }
-  return factory()
+/** A bench's state and the changes it allows; `useBench()` finds it inside <SimBench>. */
+export function createBench() {
+  return reactive(benchSetup())
 }
 
-export type BenchStore = ReturnType<typeof useBenchStore>
+export type Bench = ReturnType<typeof createBench>
 
-/** How a bench's children find their store (provided by SimBench). */
-export const BENCH_KEY: InjectionKey<BenchStore> = Symbol('cyclodial-bench')
+/** How a bench's children find their state (provided by SimBench). */
+export const BENCH_KEY: InjectionKey<Bench> = Symbol('cyclodial-bench')
 
-export function useBench(): BenchStore {
-  const store = inject(BENCH_KEY, null)
-  if (!store) throw new Error('useBench() must be called inside <SimBench> (or a test that provides BENCH_KEY).')
-  return store
+export function useBench(): Bench {
+  const bench = inject(BENCH_KEY, null)
+  if (!bench) throw new Error('useBench() must be called inside <SimBench> (or a test that provides BENCH_KEY).')
+  return bench
 }

@@ -1,9 +1,16 @@
-// A crisp, device-pixel-ratio-aware canvas that redraws at most once per display
-// frame. The engraved (static) layer is painted once per size and copied in, so a
-// redraw while dragging only paints what moved.
+// A crisp, device-pixel-ratio-aware canvas in two layers, redrawn at most once per
+// display frame: the static layer (the engraved frame, a fundus picture) is painted
+// once per size into an off-screen canvas and copied in, so a redraw while a dial
+// or a mark moves paints only what moved. The bench's trial frame and patient's view
+// and the fundus marker all draw through it. Nothing here animates, so reduced
+// motion asks nothing of it.
+//
+// The size in CSS pixels is either measured (`box` and `aspect`: width = the box's
+// width, height = width × aspect, followed as the box resizes) or given (`size`,
+// for a canvas whose page works out its size). A change of size or of the device
+// pixel ratio (zoom, another screen) repaints both layers.
 
 import { useDevicePixelRatio, useResizeObserver } from '@vueuse/core'
-import type { Ctx2d } from '~/utils/sim/draw-frame'
 
 declare global {
   interface Window {
@@ -15,28 +22,47 @@ declare global {
   }
 }
 
-export interface SimCanvasOptions {
+/** Paints in CSS pixels: the context arrives scaled by the device pixel ratio. */
+export type LayerPainter = (ctx: CanvasRenderingContext2D, width: number, height: number) => void
+
+interface Layers {
   canvas: Ref<HTMLCanvasElement | null>
-  box: Ref<HTMLElement | null>
-  /** Height = width × aspect. */
-  aspect: number
   /** Name under which redraw times are collected for the benchmark. */
   name: string
-  paintStatic?: (ctx: Ctx2d, width: number, height: number) => void
-  paint: (ctx: Ctx2d, width: number, height: number) => void
+  /** The layer painted once per size (optional). */
+  paintStatic?: LayerPainter
+  /** The layer painted on every redraw, over the static one. */
+  paint: LayerPainter
 }
 
-export function useSimCanvas(o: SimCanvasOptions) {
-  const width = ref(0)
-  const height = computed(() => Math.round(width.value * o.aspect))
+/** Sized by a box: width = the box's width, height = width × aspect. */
+export interface MeasuredCanvasOptions extends Layers {
+  box: Ref<HTMLElement | null>
+  aspect: number
+}
+
+/** Sized by the caller, in CSS pixels. */
+export interface SizedCanvasOptions extends Layers {
+  size: Ref<{ width: number, height: number }>
+}
+
+export type LayeredCanvasOptions = MeasuredCanvasOptions | SizedCanvasOptions
+
+export function useLayeredCanvas(o: LayeredCanvasOptions) {
+  const measured = 'box' in o
+  const boxWidth = ref(0)
+  const width = computed(() => (measured ? boxWidth.value : o.size.value.width))
+  const height = computed(() => (measured ? Math.round(boxWidth.value * o.aspect) : o.size.value.height))
   const { pixelRatio } = useDevicePixelRatio()
   let layer: HTMLCanvasElement | null = null
   let frame = 0
 
-  useResizeObserver(o.box, (entries) => {
-    const w = Math.floor(entries[0]?.contentRect.width ?? 0)
-    if (w > 0 && w !== width.value) width.value = w
-  })
+  if (measured) {
+    useResizeObserver(o.box, (entries) => {
+      const w = Math.floor(entries[0]?.contentRect.width ?? 0)
+      if (w > 0 && w !== boxWidth.value) boxWidth.value = w
+    })
+  }
 
   function context(c: HTMLCanvasElement | null): CanvasRenderingContext2D | null {
     return c ? c.getContext('2d') : null
@@ -67,6 +93,7 @@ export function useSimCanvas(o: SimCanvasOptions) {
     frame = requestAnimationFrame(paintNow)
   }
 
+  /** Size the canvas afresh and repaint the static layer (then the rest, on the next frame). */
   function rebuild() {
     const canvas = o.canvas.value
     if (!canvas || width.value === 0) return
@@ -91,7 +118,7 @@ export function useSimCanvas(o: SimCanvasOptions) {
     invalidate()
   }
 
-  watch([width, pixelRatio], rebuild)
+  watch([width, height, pixelRatio], rebuild)
   onMounted(() => {
     if (window.__cyclodialMeasure) {
       // the browser's clock is coarse (0.1 ms): the benchmark also times many repaints in a row
@@ -101,8 +128,10 @@ export function useSimCanvas(o: SimCanvasOptions) {
         return (performance.now() - t0) / n
       }
     }
-    const w = Math.floor(o.box.value?.getBoundingClientRect().width ?? 0)
-    if (w > 0) width.value = w
+    if (measured) {
+      const w = Math.floor(o.box.value?.getBoundingClientRect().width ?? 0)
+      if (w > 0) boxWidth.value = w
+    }
     rebuild()
     // figures are engraved in the shipped fonts: repaint once they have loaded
     document.fonts?.ready.then(rebuild).catch(() => {})
