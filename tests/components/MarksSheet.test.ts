@@ -129,7 +129,7 @@ describe('each screen that shows marks uses MarksSheet', () => {
 
   it('the staff replay: the read-only bench shows the marks once', async () => {
     fakeLayout(640)
-    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', benchId: 'marks-sheet-replay', initialDraft: body, result, readonly: true } })
+    const wrapper = await mountSuspended(SimBench, { props: { presentation, mode: 'learner-turns', initialDraft: body, result, readonly: true } })
     expect(sheets(wrapper)).toHaveLength(1)
     expect(wrapper.findAll('[data-testid="marks-total"]')).toHaveLength(1)
     // a replay is not live
