@@ -66,7 +66,8 @@ const EVIDENCE_CHUNK = 100
  * is read for learners off the list and only the examples come back.
  */
 async function patternExamples(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, wanted: { id: number, cohorts: number[], pattern: FoundPattern }[]): Promise<Map<FoundPattern, number[]>> {
-  const found: { k: number, attempt_id: number, at: string }[] = []
+  // the chunks are sent together (on PostgreSQL, each on its own pooled connection)
+  const statements: Promise<{ k: number, attempt_id: number, at: string }[]>[] = []
   for (let from = 0; from < wanted.length; from += EVIDENCE_CHUNK) {
     const parts = wanted.slice(from, from + EVIDENCE_CHUNK).map(({ id, cohorts, pattern }, i) => {
       if (pattern.code === 'left-right-rule-swapped') {
@@ -88,8 +89,9 @@ async function patternExamples(db: Kysely<Database>, f: ReviewFilters, scope: Re
       const sub = q.groupBy('attempt_slips.attempt_id').orderBy('at', 'desc').orderBy('attempt_slips.attempt_id', 'desc').limit(EXAMPLES)
       return db.selectFrom(sub.as(`e${i}`)).select([`e${i}.k`, `e${i}.attempt_id`, `e${i}.at`])
     })
-    found.push(...await parts.slice(1).reduce((all, q) => all.unionAll(q), parts[0]!).execute())
+    statements.push(parts.slice(1).reduce((all, q) => all.unionAll(q), parts[0]!).execute())
   }
+  const found = (await Promise.all(statements)).flat()
   // a compound SELECT promises no row order: put each pattern's few rows back in order here
   found.sort((a, b) => a.k - b.k || (a.at < b.at ? 1 : a.at > b.at ? -1 : 0) || b.attempt_id - a.attempt_id)
   const out = new Map<FoundPattern, number[]>(wanted.map(w => [w.pattern, []]))
