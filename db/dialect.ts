@@ -105,3 +105,14 @@ export async function lockForTransaction(trx: Transaction<any>, key: string): Pr
   if (dialectOf(trx) !== 'postgres') return
   await sql`select pg_advisory_xact_lock(hashtext(${key}))`.execute(trx)
 }
+
+/**
+ * How many statements one request may send at once to walk a large scope in parts:
+ * PostgreSQL runs each on its own pooled connection (and server process), so a view
+ * over every cohort uses several cores; SQLite answers one statement at a time in this
+ * process, where parts would only add statements. Three parts measured best on the
+ * 2-core development machine (docs/performance.md); more cores gain from more.
+ */
+export function statementsAtOnce(db: AnyDb): number {
+  return dialectOf(db) === 'postgres' ? 3 : 1
+}

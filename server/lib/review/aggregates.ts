@@ -14,13 +14,14 @@ import type { BandEdge } from '#shared/review/bands'
 import type { ReviewFilters } from '#shared/schemas/review'
 import type { AmountBandCount, DirectionTable, ReviewTotals, SlipCount, TrendWeek } from '#shared/types/review'
 import { applyReviewFilters } from './filters'
+import { byCohortParts } from './scope'
 import type { ReviewScope } from './scope'
 
 /** Attempts per learner in the view (gives the totals). */
 export async function attemptsPerLearner(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<Map<number, number>> {
-  const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+  const rows = await byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, part)
     .select(eb => ['attempts.cohort_id', 'attempts.learner_id', eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempts.cohort_id', 'attempts.learner_id']).execute()
+    .groupBy(['attempts.cohort_id', 'attempts.learner_id']).execute())
   const out = new Map<number, number>()
   for (const r of rows) out.set(r.learner_id, (out.get(r.learner_id) ?? 0) + Number(r.n))
   return out
@@ -35,9 +36,9 @@ export async function reviewTotals(db: Kysely<Database>, f: ReviewFilters, scope
 
 /** Slips by code in the view (a slip in both eyes counts twice; the eye filter keeps that eye's). */
 export async function slipCodeCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<Map<SlipCode, number>> {
-  const rows = await applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
+  const rows = await byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, part, { eye: true })
     .select(eb => ['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye', eb.fn.countAll<number>().as('n')])
-    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye']).execute()
+    .groupBy(['attempt_slips.cohort_id', 'attempt_slips.code', 'attempt_slips.eye']).execute())
   const counts = new Map<SlipCode, number>()
   for (const r of rows) if (isSlipCode(r.code)) counts.set(r.code, (counts.get(r.code) ?? 0) + Number(r.n))
   return counts
@@ -65,10 +66,10 @@ function emptyDirections(): DirectionTable {
  * direction to record), and the number of attempts in the view (every group).
  */
 export async function directionTable(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope): Promise<DirectionTable & { attempts: number }> {
-  const rows = await applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+  const rows = await byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, part)
     .select(eb => ['attempts.cohort_id', 'attempts.re_true_direction', 'attempts.re_recorded_direction', 'attempts.le_true_direction', 'attempts.le_recorded_direction', eb.fn.countAll<number>().as('n')])
     .groupBy(['attempts.cohort_id', 'attempts.re_true_direction', 'attempts.re_recorded_direction', 'attempts.le_true_direction', 'attempts.le_recorded_direction'])
-    .execute()
+    .execute())
   const table = emptyDirections()
   const eyes = f.eye ? [f.eye] : EYES
   let attempts = 0
@@ -101,10 +102,10 @@ export async function amountBands(db: Kysely<Database>, f: ReviewFilters, scope:
   // one query per eye, sent together: on PostgreSQL each runs on its own pooled connection
   const perEye = await Promise.all(eyes.map((eye) => {
     const col = eye === 'RE' ? 'attempts.re_amount_error' as const : 'attempts.le_amount_error' as const
-    return applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+    return byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, part)
       .select(eb => ['attempts.cohort_id', `${col} as error`, eb.fn.countAll<number>().as('n')])
       .where(col, 'is not', null)
-      .groupBy(['attempts.cohort_id', col]).execute()
+      .groupBy(['attempts.cohort_id', col]).execute())
   }))
   eyes.forEach((eye, i) => {
     for (const r of perEye[i]!) {
@@ -124,20 +125,25 @@ export async function weeklyTrend(db: Kysely<Database>, f: ReviewFilters, scope:
   // the same expression as the indexes attempts_rv_day and attempt_slips_rv_day, so they serve the GROUP BY
   const attemptDay = sql<string>`substr(${sql.ref('attempts.submitted_at')}, 1, 10)`
   const slipDay = sql<string>`substr(${sql.ref('attempt_slips.created_at')}, 1, 10)`
-  // the two queries are sent together (on PostgreSQL, two pooled connections)
+  // the two queries are sent together, each in parts of the cohorts (on PostgreSQL, side by side)
   const [attemptDays, slipDays] = await Promise.all([
-    applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, scope)
+    byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempts'), 'attempts', f, part)
       .select(eb => ['attempts.cohort_id', attemptDay.as('day'), eb.fn.countAll<number>().as('n')])
-      .groupBy(['attempts.cohort_id', attemptDay]).execute(),
-    applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, scope, { eye: true })
+      .groupBy(['attempts.cohort_id', attemptDay]).execute()),
+    byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempt_slips'), 'attempt_slips', f, part, { eye: true })
       .select(eb => ['attempt_slips.cohort_id', slipDay.as('day'), 'attempt_slips.code', eb.fn.countAll<number>().as('n')])
-      .groupBy(['attempt_slips.cohort_id', slipDay, 'attempt_slips.code']).execute(),
+      .groupBy(['attempt_slips.cohort_id', slipDay, 'attempt_slips.code']).execute()),
   ])
+  // rows come per cohort, day (and code): each day's week is worked out once
   const weeks = new Map<string, TrendWeek>()
+  const byDay = new Map<string, TrendWeek>()
   const at = (d: string) => {
+    let entry = byDay.get(d)
+    if (entry) return entry
     const w = weekOf(d)
-    let entry = weeks.get(w)
+    entry = weeks.get(w)
     if (!entry) weeks.set(w, entry = { week: w, attempts: 0, slips: {} })
+    byDay.set(d, entry)
     return entry
   }
   for (const r of attemptDays) at(r.day).attempts += Number(r.n)

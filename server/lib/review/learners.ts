@@ -13,6 +13,7 @@ import { addSlipSet } from '#shared/review/slip-set'
 import type { ReviewFilters } from '#shared/schemas/review'
 import type { LearnerRow } from '#shared/types/review'
 import { applyReviewFilters } from './filters'
+import { byCohortParts } from './scope'
 import type { ReviewScope } from './scope'
 
 /**
@@ -25,11 +26,11 @@ import type { ReviewScope } from './scope'
 export async function learnerCounts(db: Kysely<Database>, f: ReviewFilters, scope: ReviewScope, cohortsOf?: Map<number, Set<number>>): Promise<Map<number, LearnerCounts>> {
   // the slip sets, and the rule-swap evidence (0012): a second, small pass over the partial
   // index that holds only the telling attempts, grouped in its own order (cohort, learner,
-  // eye); both are sent together (on PostgreSQL, two pooled connections)
+  // eye); both are sent together, the slip sets in parts of the cohorts (byCohortParts)
   const [rows, swaps] = await Promise.all([
-    applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
+    byCohortParts(db, scope, part => applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, part, { dateByIndex: false })
       .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set', eb.fn.countAll<number>().as('n')])
-      .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set']).execute(),
+      .groupBy(['attempts.cohort_id', 'attempts.learner_id', 'attempts.slip_set']).execute()),
     applyReviewFilters(db.selectFrom('attempts'), 'attempts', { ...f, eye: undefined }, scope, { dateByIndex: false })
       .select(eb => ['attempts.cohort_id', 'attempts.learner_id', 'attempts.rule_swap_eye', eb.fn.countAll<number>().as('n')])
       .where('attempts.rule_swap_eye', 'is not', null)

@@ -3,6 +3,7 @@
 // the caller's scope is "not found", so a tutor cannot learn that it exists.
 import type { Kysely } from 'kysely'
 import type { Database } from '~~/db/schema'
+import { statementsAtOnce } from '~~/db/dialect'
 import type { SessionUserData } from '#shared/auth/roles'
 
 export interface ReviewScope {
@@ -43,4 +44,19 @@ export async function learnerInScope(db: Kysely<Database>, scope: ReviewScope, l
     .select('users.id').where('users.id', '=', learnerId).where('users.role', '=', 'student')
   if (scope.cohortIds) q = q.where('cohort_members.cohort_id', 'in', scope.cohortIds.length ? scope.cohortIds : [-1])
   return !!(await q.executeTakeFirst())
+}
+
+/**
+ * Runs a grouped query once per part of the scope's cohorts and joins the rows. Every
+ * review aggregate groups by cohort first and adds its rows up in JavaScript, so the
+ * parts' rows together are exactly the rows of the whole. On PostgreSQL the parts
+ * (statementsAtOnce) run side by side; on SQLite the scope stays whole.
+ */
+export async function byCohortParts<R>(db: Kysely<Database>, scope: ReviewScope, run: (part: ReviewScope) => Promise<R[]>, parts = statementsAtOnce(db)): Promise<R[]> {
+  if (parts < 2 || (scope.cohortIds && scope.cohortIds.length < 2)) return run(scope)
+  const ids = scope.cohortIds ?? (await db.selectFrom('cohorts').select('id').orderBy('id').execute()).map(r => r.id)
+  if (ids.length < 2) return run(scope)
+  const groups: number[][] = Array.from({ length: Math.min(parts, ids.length) }, () => [])
+  ids.forEach((id, i) => groups[i % groups.length]!.push(id))
+  return (await Promise.all(groups.map(cohortIds => run({ ...scope, cohortIds })))).flat()
 }
