@@ -3,10 +3,10 @@
 // courses, deep linking, and scores returned through AGS with retries.
 // The server here is this file's own (retries after 1 s instead of 30 s).
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, DEMO, signedIn, type Reply } from '../support/client'
-import { readDb } from '../support/db'
-import { PracticePlatform, ROLES, type PracticePerson } from '../support/lti-platform'
+import { Client, DEMO, signedIn } from '../support/client'
+import { PracticePlatform, type PracticePerson } from '../support/lti-platform'
 import { minutesFromNow, publishQuiz } from '../support/quiz'
+import { launchKit } from '../support/lti-launch'
 import { startServer, type RunningServer } from '../support/server'
 
 let server: RunningServer
@@ -29,49 +29,7 @@ afterAll(async () => {
   await server?.stop()
 })
 
-let people = 0
-function person(role: 'learner' | 'instructor' | 'administrator' = 'learner'): PracticePerson {
-  people++
-  return { sub: `p-${role}-${people}`, name: `Person ${people}`, email: `person${people}@practice-platform.test`, roles: [ROLES[role]] }
-}
-
-/** Starts a login as a browser would; returns the state and nonce the tool sent to the platform. */
-async function login(browser: Client, who: PracticePerson, kind: 'link' | 'deep' = 'link', linkId?: string) {
-  const url = new URL(platform.loginUrl('student', kind, linkId, who))
-  const reply = await browser.get(`${url.pathname}${url.search}`)
-  expect(reply.status, String(reply.body)).toBe(302)
-  const auth = new URL(reply.headers.get('location')!)
-  return { auth, state: auth.searchParams.get('state')!, nonce: auth.searchParams.get('nonce')! }
-}
-
-/** The platform's form_post of the id_token (a cross-site POST: the platform's Origin). */
-function postLaunch(browser: Client, fields: Record<string, string>): Promise<Reply> {
-  return browser.request('POST', '/api/lti/launch', undefined, {
-    raw: new URLSearchParams(fields).toString(),
-    headers: { 'content-type': 'application/x-www-form-urlencoded', 'origin': platform.issuer, 'sec-fetch-site': 'cross-site', 'accept': 'text/html' },
-  })
-}
-
-/** A whole launch in one browser: login, the platform's token, the post, the finish. Returns where it landed. */
-async function launch(browser: Client, who: PracticePerson, kind: 'link' | 'deep' = 'link', linkId?: string): Promise<string> {
-  const { state, nonce } = await login(browser, who, kind, linkId)
-  const token = await platform.idToken({ nonce, person: who, messageType: kind === 'deep' ? 'LtiDeepLinkingRequest' : 'LtiResourceLinkRequest', linkId })
-  const posted = await postLaunch(browser, { id_token: token, state })
-  expect(posted.status, String(posted.body)).toBe(303)
-  const finish = await browser.get(posted.headers.get('location')!)
-  expect(finish.status, String(finish.body)).toBe(302)
-  return finish.headers.get('location')!
-}
-
-function accountsOf(email: string): number {
-  const db = readDb(server.dbPath)
-  try {
-    return db.count('select count(*) as n from users where email = ?', email)
-  }
-  finally {
-    db.close()
-  }
-}
+const { person, login, postLaunch, launch, accountsOf, until } = launchKit(() => ({ server, platform }))
 
 describe('registering a learning platform', () => {
   it('lists it with the tool configuration to copy; refuses bad input naming the fields and a second registration', async () => {
@@ -400,11 +358,3 @@ describe('courses, deep linking and grades back', () => {
     expect((await learner.get(`/api/quizzes/${quiz.id}/lti-grades`)).status).toBe(403)
   }, 60_000)
 })
-
-async function until(check: () => boolean, timeoutMs = 10_000) {
-  const deadline = Date.now() + timeoutMs
-  while (!check()) {
-    if (Date.now() > deadline) throw new Error(`timed out; platform log: ${platform.log.join(' | ')}`)
-    await new Promise(r => setTimeout(r, 100))
-  }
-}

@@ -4,11 +4,9 @@ import { readdirSync, statSync } from 'node:fs'
 import { join } from 'node:path'
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test } from '@playwright/test'
+import { WCAG_TAGS } from './a11y-helpers'
 import { signIn } from './helpers'
 import { ACCOUNTS, NOT_VISITED, PAGES } from './pages'
-
-// axe-core tags for WCAG 2.0 and 2.1, levels A and AA (axe-core API documentation, "runOnly" tags)
-const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']
 
 function vueFiles(dir: string): string[] {
   return readdirSync(dir).flatMap((name) => {

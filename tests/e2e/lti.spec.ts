@@ -4,11 +4,10 @@
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
 import type { PracticePlatform } from '../support/lti-platform'
+import { WCAG_TAGS } from './a11y-helpers'
 import { sameOrigin } from './helpers'
 import { registeredPlatform } from './lti-helpers'
 
-// axe-core tags for WCAG 2.0 and 2.1, levels A and AA (axe-core API documentation, "runOnly" tags)
-const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa']
 const COURSE = `Orthoptics practice course ${Date.now()}`
 const TITLE = 'Course quiz: cyclotorsion record'
 
