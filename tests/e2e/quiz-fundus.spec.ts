@@ -90,7 +90,10 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   await student.keyboard.press('ArrowDown')
   await expect(student.getByTestId('fundus-angle')).toBeVisible()
   const leAngle = (await student.getByTestId('fundus-angle').textContent())!
+  // wait for the save that carries the left eye's finding (an earlier save's "All changes saved" may still show)
+  const findingSaved = student.waitForResponse(r => r.request().method() === 'PUT' && r.url().endsWith('/draft') && (r.request().postData() ?? '').includes('"excyclo"') && r.ok())
   await student.getByLabel('Excyclotorsion').check()
+  await findingSaved
   await expect(student.getByTestId('save-state')).toContainText('All changes saved')
 
   // reload: the marks and findings come back from the server
