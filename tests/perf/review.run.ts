@@ -134,7 +134,7 @@ async function seedPostgres(adminUrl: string): Promise<Seeded> {
     const counts = (await client.query(`select count(*)::int as attempts, count(distinct learner_id)::int as learners from attempts
       where cohort_id in (select id from cohorts where name like 'Bench cohort %')`)).rows[0] as { attempts: number, learners: number }
     const size = (await client.query('select pg_database_size(current_database())::bigint as b')).rows[0].b
-    console.log(`PostgreSQL: seeded ${counts.attempts} attempts, ${made.slipRows} slips, ${counts.learners} learners in ${(seeded / 1000).toFixed(1)} s (incl. VACUUM ANALYZE); database ${(Number(size) / 1e6).toFixed(0)} MB`)
+    console.log(`PostgreSQL: ${reuse ? `reused ${process.env.REVIEW_BENCH_PG_DB} with` : 'seeded'} ${counts.attempts} attempts, ${made.slipRows} slips, ${counts.learners} learners${reuse ? '' : ` in ${(seeded / 1000).toFixed(1)} s (incl. VACUUM ANALYZE)`}; database ${(Number(size) / 1e6).toFixed(0)} MB`)
     expect(counts.attempts).toBe(PLAN.attempts)
     expect(counts.learners).toBe(PLAN.learners)
 
