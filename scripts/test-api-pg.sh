@@ -20,6 +20,6 @@ export CYCLODIAL_TEST_PG_URL
 echo "--- PostgreSQL tier on ${CYCLODIAL_TEST_PG_URL}"
 
 status=0
-npx vitest run --project unit tests/unit/db/ tests/unit/fundus/photoStore.test.ts || status=$?
+npx vitest run --project unit tests/unit/db/ tests/unit/fundus/photo-store.test.ts || status=$?
 npx vitest run --project api "$@" || status=$?
 exit $status

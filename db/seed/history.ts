@@ -8,9 +8,9 @@ import { makeRng, pick } from '#shared/engine/random'
 import type { Database } from '../schema'
 import { recordAttempt } from '~~/server/lib/practice/attempts'
 import { insertCase } from '~~/server/lib/practice/cases'
-import type { Profile } from './learnerModel'
+import type { Profile } from './learner-model'
 import type { Habit } from './quiz-records'
-import { SIMULATION_TEMPLATES, simulateAttempt } from './learnerModel'
+import { SIMULATION_TEMPLATES, simulateAttempt } from './learner-model'
 
 /** Who has which habit: one-eye and both-eye reversers in each cohort, the rest mostly clean. */
 export const DEMO_HABITS: Record<string, Profile> = {

@@ -8,7 +8,7 @@ import { generateCase } from '~~/server/lib/engine/generator'
 import type { Client } from '../support/client'
 import { signedIn } from '../support/client'
 import { readDb } from '../support/db'
-import { payloadText, revivePayload } from '../support/nuxtPayload'
+import { payloadText, revivePayload } from '../support/nuxt-payload'
 import type { ScanOptions } from '../support/secrecy'
 import { caseSecrets, expectNoCaseSecrets, findCaseSecrets } from '../support/secrecy'
 

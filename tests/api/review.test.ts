@@ -11,7 +11,7 @@ import type { Client } from '../support/client'
 import { DEMO, signedIn, waitForMail } from '../support/client'
 import { readDb } from '../support/db'
 import { correctRecord } from '../support/practice'
-import { insertAttempts } from '../support/reviewRows'
+import { insertAttempts } from '../support/review-rows'
 
 const baseURL = inject('baseURL')
 const dbPath = inject('dbPath')

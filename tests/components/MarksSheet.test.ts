@@ -21,7 +21,7 @@ import type { BenchResult } from '#shared/bench/contract'
 import type { RecordCheckResult as CheckResult } from '#shared/types/practice'
 import type { StudentItemFeedback } from '#shared/types/quiz'
 import { engineCase } from '~~/tests/support/presentation'
-import { fakeLayout } from '~~/tests/support/benchHost'
+import { fakeLayout } from '~~/tests/support/bench-host'
 
 // a reversed right eye: 10° excyclo recorded as incyclo — a critical slip, so the cap applies
 // (clinical-facts.md: RE torsion = reading − 90, so a reading of 100 is 10° excyclo)

@@ -10,7 +10,7 @@ import { patientSetsRods } from '~~/server/lib/engine/patient'
 import { SLIP_INFO } from '#shared/engine/slips'
 import type { AttemptBody, BenchDraft, BenchResult, TurnRequest } from '#shared/bench/contract'
 import { engineCase } from '~~/tests/support/presentation'
-import { fakeLayout, nextFrame } from '~~/tests/support/benchHost'
+import { fakeLayout, nextFrame } from '~~/tests/support/bench-host'
 
 afterEach(() => {
   vi.restoreAllMocks()

@@ -7,7 +7,7 @@ import SimBench from '~/components/sim/SimBench.vue'
 import type { BenchDraft } from '#shared/bench/contract'
 import type { Bench } from '~/composables/useBench'
 import { engineCase } from '~~/tests/support/presentation'
-import { fakeLayout } from '~~/tests/support/benchHost'
+import { fakeLayout } from '~~/tests/support/bench-host'
 
 afterEach(() => vi.restoreAllMocks())
 

@@ -6,7 +6,7 @@ import SimPatientView from '~/components/sim/SimPatientView.vue'
 import SimRecordPad from '~/components/sim/SimRecordPad.vue'
 import { parseRecord } from '#shared/engine/parser'
 import { engineCase } from '~~/tests/support/presentation'
-import { fakeLayout, mountInBench } from '~~/tests/support/benchHost'
+import { fakeLayout, mountInBench } from '~~/tests/support/bench-host'
 
 afterEach(() => {
   vi.restoreAllMocks()

@@ -3,7 +3,7 @@ import { nextTick } from 'vue'
 import SimTrialFrame from '~/components/sim/SimTrialFrame.vue'
 import { frameLayout, polar } from '~/utils/sim/frame-geometry'
 import { engineCase } from '~~/tests/support/presentation'
-import { fakeLayout, mountInBench, nextFrame } from '~~/tests/support/benchHost'
+import { fakeLayout, mountInBench, nextFrame } from '~~/tests/support/bench-host'
 
 const { presentation } = engineCase('so-palsy-right', 'frame-test-1')
 const learner = { presentation, mode: 'learner-turns' as const, readScale: false }

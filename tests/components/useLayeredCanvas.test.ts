@@ -7,7 +7,7 @@ import type { Ref } from 'vue'
 import { mountSuspended } from '@nuxt/test-utils/runtime'
 import { useLayeredCanvas } from '~/composables/useLayeredCanvas'
 import type { LayerPainter } from '~/composables/useLayeredCanvas'
-import { fakeLayout, nextFrame } from '~~/tests/support/benchHost'
+import { fakeLayout, nextFrame } from '~~/tests/support/bench-host'
 
 let dprBefore: PropertyDescriptor | undefined
 beforeEach(() => {

@@ -2,11 +2,11 @@
 // replays, quiz results and attempts, the audit log) and fails on any slip code or
 // audit action code in the visible text. The codes come from the code itself:
 // SLIP_CODES (shared/engine/slips.ts) and every action the server writes
-// (tests/support/auditActions.ts reads the writeAudit calls).
+// (tests/support/audit-actions.ts reads the writeAudit calls).
 import { expect, test } from '@playwright/test'
 import type { APIRequestContext, Page } from '@playwright/test'
 import { SLIP_CODES } from '../../shared/engine/slips'
-import { writtenAuditActions } from '../support/auditActions'
+import { writtenAuditActions } from '../support/audit-actions'
 import { sameOrigin, signIn } from './helpers'
 
 const CODES = [...SLIP_CODES, ...writtenAuditActions()]

@@ -2,7 +2,7 @@
 // as a code or as JSON.
 import { describe, expect, it } from 'vitest'
 import { AUDIT_ACTIONS, auditActionWords, auditChangeWords, auditTargetWords } from '#shared/audit/words'
-import { writtenAuditActions } from '../../support/auditActions'
+import { writtenAuditActions } from '../../support/audit-actions'
 
 const names = {
   user: (id: number) => ({ 5: 'Tamsin Arkwell' } as Record<number, string>)[id],

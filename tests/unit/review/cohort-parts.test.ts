@@ -10,8 +10,8 @@ import { statementsAtOnce } from '../../../db/dialect'
 import { applyReviewFilters } from '~~/server/lib/review/filters'
 import { byCohortParts } from '~~/server/lib/review/scope'
 import type { ReviewScope } from '~~/server/lib/review/scope'
-import { insertAttempts, resetSharedCase } from '../../support/reviewRows'
-import type { RowAttempt } from '../../support/reviewRows'
+import { insertAttempts, resetSharedCase } from '../../support/review-rows'
+import type { RowAttempt } from '../../support/review-rows'
 
 let db: Kysely<Database>
 const lecturer: ReviewScope = { cohortIds: null, role: 'lecturer', userId: 0 }

@@ -4,7 +4,7 @@ import { fc, test } from '@fast-check/vitest'
 import { findRuleSwap, ruleSwapEvidence } from '#shared/engine/slips'
 import type { RuleSwapAttempt, Slip } from '#shared/engine/slips'
 import { countsFromHistory, detectPatterns, needsHelpScore, ruleSwapEye } from '#shared/review/patterns'
-import { attemptArb, attemptOn } from '../../support/slipHistories'
+import { attemptArb, attemptOn } from '../../support/slip-histories'
 
 type H = RuleSwapAttempt[]
 /** Both eyes clearly torted (a bilateral palsy): a one-eye reversal here tells a rule swap from recording the image. */

@@ -13,9 +13,9 @@ import type { Database } from '../../../db/schema'
 import { amountBands, directionTable, reviewTotals, slipCodeCounts, slipTable, weeklyTrend } from '~~/server/lib/review/aggregates'
 import { learnerCounts } from '~~/server/lib/review/learners'
 import type { ReviewScope } from '~~/server/lib/review/scope'
-import { insertAttempts, resetSharedCase } from '../../support/reviewRows'
-import { historyArb } from '../../support/slipHistories'
-import type { RowAttempt } from '../../support/reviewRows'
+import { insertAttempts, resetSharedCase } from '../../support/review-rows'
+import { historyArb } from '../../support/slip-histories'
+import type { RowAttempt } from '../../support/review-rows'
 
 let db: Kysely<Database>
 const all: ReviewScope = { cohortIds: null, role: 'lecturer', userId: 0 }

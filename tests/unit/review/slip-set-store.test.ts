@@ -18,8 +18,8 @@ import { staticMigrationProvider } from '../../../db/migrations'
 import type { Database } from '../../../db/schema'
 import { learnerCounts, needsHelp } from '~~/server/lib/review/learners'
 import type { ReviewScope } from '~~/server/lib/review/scope'
-import { attemptValues } from '../../support/reviewRows'
-import { attemptOn, historyArb } from '../../support/slipHistories'
+import { attemptValues } from '../../support/review-rows'
+import { attemptOn, historyArb } from '../../support/slip-histories'
 
 const all: ReviewScope = { cohortIds: null, role: 'lecturer', userId: 0 }
 const now = '2026-11-02T10:00:00.000Z'
