@@ -13,6 +13,9 @@ export type QuizCriterion = (typeof QUIZ_CRITERIA)[number]
 export const QUIZ_ITEM_KINDS = ['dmr', 'fundus'] as const
 export type QuizItemKind = (typeof QUIZ_ITEM_KINDS)[number]
 
+/** Each kind's path segment for its attempts, in the API and the pages: `/quizzes/:id/<segment>/:attemptId`. */
+export const KIND_ATTEMPT_PATHS = { dmr: 'attempts', fundus: 'fundus-attempts' } as const satisfies Record<QuizItemKind, string>
+
 /** The criteria each item kind marks (the others never appear in its marks). */
 export const KIND_CRITERIA: Record<QuizItemKind, readonly QuizCriterion[]> = {
   dmr: ['measurement', 'direction', 'amount', 'eye', 'test', 'gaze', 'distance', 'action', 'reason', 'interpretation'],

@@ -9,7 +9,7 @@
 import type { Kysely } from 'kysely'
 import type { SessionUserData } from '#shared/auth/roles'
 import type { QuizCriterion, QuizItemKind } from '#shared/schemas/quiz'
-import { KIND_CRITERIA } from '#shared/schemas/quiz'
+import { KIND_ATTEMPT_PATHS, KIND_CRITERIA } from '#shared/schemas/quiz'
 import type { FundusGradeResult } from '#shared/engine/fundus/result'
 import type { EffectiveMark, QuizAttemptView, QuizFundusAttemptView, StudentQuizItem } from '#shared/types/quiz'
 import type { AttemptRow, Database, FundusAttemptRow, QuizItemRow, QuizRow } from '~~/db/schema'
@@ -43,7 +43,7 @@ export interface ItemKind<K extends QuizItemKind, Row extends QuizAttemptBase, C
   /** The audit log's target type for an override on its attempts. */
   readonly auditTarget: 'attempt' | 'fundus-attempt'
   /** The path segment of its attempt routes and pages: `/quizzes/:id/<segment>/:attemptId`. */
-  readonly attemptPath: 'attempts' | 'fundus-attempts'
+  readonly attemptPath: (typeof KIND_ATTEMPT_PATHS)[K]
   /** One quiz attempt of the quiz (only the learner's own when `learnerId` is given). */
   attempt(db: Kysely<Database>, key: { quizId: number, attemptId: number, learnerId?: number }): Promise<Row | undefined>
   /** Every quiz attempt on the quiz (only one learner's when given), oldest first. */
@@ -87,7 +87,7 @@ const dmr: ItemKind<'dmr', AttemptRow, DmrItemConfig, QuizAttemptView> = {
   kind: 'dmr',
   ...storedIn('attempts', 'quiz_mark_overrides'),
   auditTarget: 'attempt',
-  attemptPath: 'attempts',
+  attemptPath: KIND_ATTEMPT_PATHS.dmr,
   drafts: benchDraftsOf,
   marks: effectiveMarks,
   slips: attempt => (JSON.parse(attempt.slips_json) as { code: string }[]).map(s => s.code),
@@ -101,7 +101,7 @@ const fundus: ItemKind<'fundus', FundusAttemptRow, FundusItemConfig, QuizFundusA
   kind: 'fundus',
   ...storedIn('fundus_attempts', 'quiz_fundus_overrides'),
   auditTarget: 'fundus-attempt',
-  attemptPath: 'fundus-attempts',
+  attemptPath: KIND_ATTEMPT_PATHS.fundus,
   drafts: fundusDraftsOf,
   marks: (attempt, config, _interpretationOn, overrides) => applyOverrides(fundusMarksOf(JSON.parse(attempt.result_json) as FundusGradeResult, config.weights), overrides),
   // slips are the double Maddox rod record's; a fundus item has marks, not record slips
