@@ -71,6 +71,7 @@ test('a tutor deep-links a quiz; a student launches, sits and hands in; the rele
   const student = await (await browser.newContext()).newPage()
   await student.goto(`${platform.issuer}/start?as=student&link=${link.id}`)
   await expect(student).toHaveURL(new RegExp(`/student/quizzes/${quizId}$`))
+  await student.waitForLoadState('networkidle')
   await student.getByRole('button', { name: 'Start the quiz' }).click()
   await expect(student).toHaveURL(new RegExp(`/student/quizzes/${quizId}/items/\\d+$`))
   const turned = student.waitForResponse(r => r.url().endsWith('/turns') && r.request().method() === 'POST')

@@ -37,6 +37,8 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
   const student = await browser.newPage({ viewport: { width: 1280, height: 720 } })
   await signIn(student, 'adaeze.quillon@cyclodial.test')
   await student.goto(`/student/quizzes/${created.id}`)
+  // a click before hydration would meet a server-rendered button with no handler yet
+  await student.waitForLoadState('networkidle')
   // the picture arrives as pixels rendered on the server
   const rendered = student.waitForResponse(r => /\/pictures\/RE$/.test(new URL(r.url()).pathname))
   await student.getByRole('button', { name: 'Start the quiz' }).click()
