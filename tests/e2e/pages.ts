@@ -75,6 +75,7 @@ async function newCase(page: Page): Promise<number> {
 async function openQuizItem(page: Page): Promise<string> {
   const quiz = await firstLink(page, '/student/quizzes', /^\/student\/quizzes\/\d+$/)
   await page.goto(quiz)
+  await page.waitForLoadState('networkidle')
   const start = page.getByRole('button', { name: 'Start the quiz' })
   if (await start.isVisible()) {
     await start.click()
@@ -84,11 +85,7 @@ async function openQuizItem(page: Page): Promise<string> {
   return firstLink(page, quiz, /^\/student\/quizzes\/\d+\/items\/\d+$/)
 }
 
-/**
- * A student's patients, opened as a tutor does: from the results table, by following the link.
- * (Loaded directly, this page currently shows nothing: its item cases are fetched without the
- * session cookie during server rendering — reported to the screens work, not an accessibility matter.)
- */
+/** A student's patients, opened as a tutor does: from the results table, by following the link. */
 async function studentsPatients(page: Page): Promise<string> {
   const path = await linkThrough(page, '/quizzes', /^\/quizzes\/\d+\/results$/, /^\/quizzes\/\d+\/students\/\d+$/)
   const results = path.replace(/\/students\/\d+$/, '/results')
