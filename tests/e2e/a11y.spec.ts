@@ -5,7 +5,7 @@ import { join } from 'node:path'
 import AxeBuilder from '@axe-core/playwright'
 import { expect, test } from '@playwright/test'
 import { WCAG_TAGS } from './a11y-helpers'
-import { signIn } from './helpers'
+import { gotoReady, signIn } from './helpers'
 import { ACCOUNTS, NOT_VISITED, PAGES } from './pages'
 
 function vueFiles(dir: string): string[] {
@@ -53,7 +53,7 @@ for (const entry of PAGES) {
 }
 
 test('a refused sign-in moves focus to the first field in error', async ({ page }) => {
-  await page.goto('/login')
+  await gotoReady(page, '/login')
   await page.getByRole('button', { name: 'Sign in' }).click()
   const invalid = page.locator('[aria-invalid="true"]')
   await expect(invalid.first()).toBeVisible()

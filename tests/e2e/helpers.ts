@@ -2,8 +2,18 @@ import { expect, type Page } from '@playwright/test'
 
 export const DEMO_PASSWORD = 'cyclodial-demo'
 
+/**
+ * Opens a page and waits until the app has hydrated (plugins/hydrated.client.ts marks
+ * <html data-hydrated>): typing or clicking before then meets server-rendered markup
+ * whose handlers are not attached yet, and a form would submit natively.
+ */
+export async function gotoReady(page: Page, path: string) {
+  await page.goto(path)
+  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+}
+
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
-  await page.goto('/login')
+  await gotoReady(page, '/login')
   await page.getByLabel('E-mail').fill(email)
   await page.getByLabel('Password').fill(password)
   await page.getByRole('button', { name: 'Sign in' }).click()

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { signIn, signOut } from './helpers'
+import { gotoReady, signIn, signOut } from './helpers'
 
 const homes = [
   { email: 'student@cyclodial.test', home: '/student', heading: /Welcome, Tamsin Arkwell/ },
@@ -19,7 +19,7 @@ for (const { email, home, heading } of homes) {
 }
 
 test('a wrong password shows one clear message and keeps the e-mail', async ({ page }) => {
-  await page.goto('/login')
+  await gotoReady(page, '/login')
   await page.getByLabel('E-mail').fill('tutor2@cyclodial.test')
   await page.getByLabel('Password').fill('not-the-password')
   await page.getByRole('button', { name: 'Sign in' }).click()
@@ -39,6 +39,7 @@ test('a student opening an admin page is refused', async ({ page }) => {
 test('a signed-out visitor is sent to sign in, then back to the page asked for', async ({ page }) => {
   await page.goto('/admin/cohorts')
   await expect(page).toHaveURL(/\/login\?next=(%2F|\/)admin(%2F|\/)cohorts$/)
+  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
   await page.getByLabel('E-mail').fill('admin@cyclodial.test')
   await page.getByLabel('Password').fill('cyclodial-demo')
   await page.getByRole('button', { name: 'Sign in' }).click()
