@@ -3,13 +3,17 @@ import { expect, type Page } from '@playwright/test'
 export const DEMO_PASSWORD = 'cyclodial-demo'
 
 /**
- * Opens a page and waits until the app has hydrated (plugins/hydrated.client.ts marks
- * <html data-hydrated>): typing or clicking before then meets server-rendered markup
- * whose handlers are not attached yet, and a form would submit natively.
+ * Waits until the app has hydrated (plugins/hydrated.client.ts marks <html data-hydrated>):
+ * typing or clicking before then meets server-rendered markup whose handlers are not
+ * attached yet, and a form would submit natively.
  */
+export async function hydrated(page: Page) {
+  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+}
+
 export async function gotoReady(page: Page, path: string) {
   await page.goto(path)
-  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+  await hydrated(page)
 }
 
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {

@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test'
-import { gotoReady, signIn, signOut } from './helpers'
+import { gotoReady, hydrated, signIn, signOut } from './helpers'
 
 const homes = [
   { email: 'student@cyclodial.test', home: '/student', heading: /Welcome, Tamsin Arkwell/ },
@@ -39,7 +39,7 @@ test('a student opening an admin page is refused', async ({ page }) => {
 test('a signed-out visitor is sent to sign in, then back to the page asked for', async ({ page }) => {
   await page.goto('/admin/cohorts')
   await expect(page).toHaveURL(/\/login\?next=(%2F|\/)admin(%2F|\/)cohorts$/)
-  await page.locator('html[data-hydrated]').waitFor({ state: 'attached' })
+  await hydrated(page)
   await page.getByLabel('E-mail').fill('admin@cyclodial.test')
   await page.getByLabel('Password').fill('cyclodial-demo')
   await page.getByRole('button', { name: 'Sign in' }).click()
