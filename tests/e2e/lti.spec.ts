@@ -5,7 +5,7 @@ import AxeBuilder from '@axe-core/playwright'
 import { expect, test, type Page } from '@playwright/test'
 import type { PracticePlatform } from '../support/lti-platform'
 import { WCAG_TAGS } from './a11y-helpers'
-import { sameOrigin } from './helpers'
+import { hydrated, sameOrigin } from './helpers'
 import { registeredPlatform } from './lti-helpers'
 
 const COURSE = `Orthoptics practice course ${Date.now()}`
@@ -71,7 +71,7 @@ test('a tutor deep-links a quiz; a student launches, sits and hands in; the rele
   const student = await (await browser.newContext()).newPage()
   await student.goto(`${platform.issuer}/start?as=student&link=${link.id}`)
   await expect(student).toHaveURL(new RegExp(`/student/quizzes/${quizId}$`))
-  await student.waitForLoadState('networkidle')
+  await hydrated(student)
   await student.getByRole('button', { name: 'Start the quiz' }).click()
   await expect(student).toHaveURL(new RegExp(`/student/quizzes/${quizId}/items/\\d+$`))
   const turned = student.waitForResponse(r => r.url().endsWith('/turns') && r.request().method() === 'POST')

@@ -5,7 +5,7 @@
 // never written in.
 import { expect, request, type Page } from '@playwright/test'
 import { syntheticPng } from '../support/fundus'
-import { DEMO_PASSWORD, sameOrigin } from './helpers'
+import { DEMO_PASSWORD, gotoReady, sameOrigin } from './helpers'
 import { linkCourse, registeredPlatform, tutorDeepLinkLaunch } from './lti-helpers'
 
 export type Who = 'signed-out' | 'student' | 'tutor' | 'lecturer' | 'admin'
@@ -74,8 +74,7 @@ async function newCase(page: Page): Promise<number> {
 /** The demo quiz open now, started (or continued) by the signed-in student: its first item. */
 async function openQuizItem(page: Page): Promise<string> {
   const quiz = await firstLink(page, '/student/quizzes', /^\/student\/quizzes\/\d+$/)
-  await page.goto(quiz)
-  await page.waitForLoadState('networkidle')
+  await gotoReady(page, quiz)
   const start = page.getByRole('button', { name: 'Start the quiz' })
   if (await start.isVisible()) {
     await start.click()

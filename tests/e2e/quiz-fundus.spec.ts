@@ -5,7 +5,7 @@
 import { expect, test } from '@playwright/test'
 import type { Page } from '@playwright/test'
 import type { StudentFundusItem } from '#shared/types/quiz'
-import { sameOrigin, signIn } from './helpers'
+import { gotoReady, sameOrigin, signIn } from './helpers'
 
 const TITLE = 'Browser quiz: a fundus'
 const minutesFromNow = (m: number) => new Date(Date.now() + m * 60_000).toISOString()
@@ -36,9 +36,7 @@ test('a tutor adds a fundus item; a student marks it by pointer and keyboard, re
 
   const student = await browser.newPage({ viewport: { width: 1280, height: 720 } })
   await signIn(student, 'adaeze.quillon@cyclodial.test')
-  await student.goto(`/student/quizzes/${created.id}`)
-  // a click before hydration would meet a server-rendered button with no handler yet
-  await student.waitForLoadState('networkidle')
+  await gotoReady(student, `/student/quizzes/${created.id}`)
   // the picture arrives as pixels rendered on the server
   const rendered = student.waitForResponse(r => /\/pictures\/RE$/.test(new URL(r.url()).pathname))
   await student.getByRole('button', { name: 'Start the quiz' }).click()
